@@ -4,7 +4,7 @@ import type { Config } from '../../lib/config';
 import { AppError } from '../../lib/errors';
 import { logger } from '../../lib/logger';
 import { recordAudit } from '../audit/audit.repository';
-import { requireSignedIn } from './auth.middleware';
+import { publicRoute, requireSignedIn } from './auth.middleware';
 import { client, oidcConfiguration } from './oidc-client';
 import { upsertUser } from './users.repository';
 import './session-types';
@@ -35,7 +35,7 @@ export function authRouter(config: Config): Router {
   const router = Router();
   const redirectUri = `${config.appUrl}/auth/callback`;
 
-  router.get('/auth/login', async (req, res, next) => {
+  router.get('/auth/login', publicRoute, async (req, res, next) => {
     try {
       const configuration = await oidcConfiguration(config);
       const codeVerifier = client.randomPKCECodeVerifier();
@@ -60,7 +60,7 @@ export function authRouter(config: Config): Router {
     }
   });
 
-  router.get('/auth/callback', async (req, res, next) => {
+  router.get('/auth/callback', publicRoute, async (req, res, next) => {
     const pending = req.session.pendingSignIn;
     if (!pending) {
       res
@@ -125,7 +125,7 @@ export function authRouter(config: Config): Router {
     }
   });
 
-  router.post('/auth/logout', async (req, res, next) => {
+  router.post('/auth/logout', publicRoute, async (req, res, next) => {
     const user = req.session?.user;
     const idToken = req.session?.idToken;
     let redirectTo = '/';

@@ -1,9 +1,10 @@
 import { Router } from 'express';
 import { db } from '../../lib/db';
+import { publicRoute } from '../auth/auth.middleware';
 
 export function healthRouter(): Router {
   const router = Router();
-  router.get('/api/health', async (_req, res) => {
+  router.get('/api/health', publicRoute, async (_req, res) => {
     try {
       await Promise.race([
         db().query('SELECT 1'),
