@@ -119,6 +119,17 @@ export function leafIndices(tree: CompiledTree, rowCount: number): Int32Array {
   return out;
 }
 
+/** Like leafIndices, for some rows only (result[i] belongs to rows[i]). */
+export function leafIndicesOf(tree: CompiledTree, rows: ArrayLike<number>): Int32Array {
+  const out = new Int32Array(rows.length);
+  for (let k = 0; k < rows.length; k++) {
+    let i = 0;
+    while (tree.left[i] >= 0) i = route(tree, i, rows[k]);
+    out[k] = i;
+  }
+  return out;
+}
+
 export function share(node: TreeNode): number {
   if (isWithheld(node) || node.n === 0) return Number.NaN;
   return node.positive / node.n;
