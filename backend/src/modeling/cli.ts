@@ -20,7 +20,7 @@ export type ModelFile = {
   format: typeof MODEL_FORMAT;
   version: 1;
   target: string;
-  positive: string;
+  positiveValue: string;
   features: Array<{ name: string; kind: 'numeric' | 'categorical' }>;
   root: TreeNode;
   [more: string]: unknown;
@@ -84,7 +84,7 @@ function column(
     : { name, kind: 'categorical', values: cells.map((c) => (c === '' ? null : c)) };
 }
 
-function fit(options: Map<string, string>): string {
+function fitCommand(options: Map<string, string>): string {
   const { header, rows } = readCsv(required(options, 'data'));
   const target = required(options, 'target');
   const modelPath = required(options, 'model');
@@ -132,7 +132,7 @@ function fit(options: Map<string, string>): string {
     format: MODEL_FORMAT,
     version: 1,
     target,
-    positive: positiveOption ?? '1/yes/true',
+    positiveValue: positiveOption ?? '1/yes/true',
     features: table.columns.map((c) => ({ name: c.name, kind: c.kind })),
     root: tree,
     ...rest,
@@ -167,7 +167,7 @@ function predictCommand(options: Map<string, string>): string {
 export function runCli(argv: string[]): { code: number; stdout: string; stderr: string } {
   const [command, ...rest] = argv;
   try {
-    if (command === 'fit') return { code: 0, stdout: '', stderr: fit(parseArgs(rest)) };
+    if (command === 'fit') return { code: 0, stdout: '', stderr: fitCommand(parseArgs(rest)) };
     if (command === 'predict') return { code: 0, stdout: predictCommand(parseArgs(rest)), stderr: '' };
     throw new UsageError(
       'Usage: tree fit --data FILE.csv --target COLUMN --model OUT.json | tree predict --model M.json --data FILE.csv',
