@@ -135,14 +135,12 @@ describe('PUT /api/policy', () => {
     });
     try {
       const before = await currentPolicy();
-      const res = await privacy
-        .put('/api/policy')
-        .send({
-          ...valid,
-          k: before.k + 1,
-          blockedFields: [...before.blockedFields, 'Ethnicity'],
-          reason: 'Add ethnicity',
-        });
+      const res = await privacy.put('/api/policy').send({
+        ...valid,
+        k: before.k + 1,
+        blockedFields: [...before.blockedFields, 'Ethnicity'],
+        reason: 'Add ethnicity',
+      });
       expect(res.status).toBe(200);
       expect(seen).toHaveLength(1);
       expect(seen[0]).toMatchObject({ kRaised: true, newlyBlocked: ['Ethnicity'], unblocked: [] });
