@@ -2,7 +2,7 @@
 // every check: lint, type-check, migrations in step with the entities, build, and all tests
 // (unit, API and the browser suite). Extra arguments go to vitest (e.g. `npm test -- tests/backend/auth`).
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -56,6 +56,7 @@ function step(name, cmd, args, extraEnv = {}) {
 }
 
 let ok = true;
+let counts = null;
 try {
   if (vitestArgs.length === 0) {
     ok = step('lint (biome)', 'npx', ['biome', 'check', '.']) && ok;
@@ -67,11 +68,30 @@ try {
       }) && ok;
     ok = step('build the web app (vite)', 'npx', ['vite', 'build', '--logLevel', 'warn']) && ok;
   }
-  ok = step('tests (vitest: node, web, e2e)', 'npx', ['vitest', 'run', ...vitestArgs]) && ok;
+  const report = path.join(path.dirname(dir), 'vitest-report.json');
+  ok =
+    step('tests (vitest: node, web, e2e)', 'npx', [
+      'vitest',
+      'run',
+      '--reporter=default',
+      '--reporter=json',
+      `--outputFile.json=${report}`,
+      ...vitestArgs,
+    ]) && ok;
+  if (existsSync(report)) {
+    const results = JSON.parse(readFileSync(report, 'utf8'));
+    counts = {
+      passed: results.numPassedTests,
+      failed: results.numFailedTests,
+      skipped: results.numPendingTests + results.numTodoTests,
+    };
+  }
 } finally {
   removeCluster(bin, dir);
 }
 log(
   `summary after ${((Date.now() - started) / 1000).toFixed(0)} s:\n${steps.map((s) => `  ${s}`).join('\n')}`,
 );
+if (counts)
+  process.stdout.write(`${counts.passed} passed, ${counts.failed} failed, ${counts.skipped} skipped\n`);
 process.exit(ok ? 0 : 1);

@@ -17,6 +17,8 @@ export type Running = {
   app: ReturnType<typeof createApp>;
   dataSource: DataSource;
   url: string;
+  /** The local identity provider and mail sink, when this process runs them (fault tests stop them). */
+  local: { idp?: { stop: () => Promise<void> }; mailSink?: { stop: () => Promise<void> } };
   stop: () => Promise<void>;
 };
 
@@ -55,6 +57,7 @@ export async function startCoppice(config: Config, options: StartOptions = {}): 
     }
   };
 
+  const local: Running['local'] = {};
   try {
     if (localServices && config.localIdp) {
       const idp = await startLocalIdp({
@@ -68,11 +71,13 @@ export async function startCoppice(config: Config, options: StartOptions = {}): 
         dataDir: config.dataDir,
       });
       stops.push(idp.stop);
+      local.idp = idp;
     }
     let mailSink = false;
     if (localServices && config.mail.sinkPort !== null) {
       const sink = await startMailSink(config.mail.sinkPort);
       stops.push(sink.stop);
+      local.mailSink = sink;
       mailSink = true;
     }
     configureMailer(config);
@@ -119,7 +124,7 @@ export async function startCoppice(config: Config, options: StartOptions = {}): 
       const address = server.address();
       if (address && typeof address === 'object') url = `http://${config.host}:${address.port}`;
     }
-    return { config, app, dataSource, url, stop: stopAll };
+    return { config, app, dataSource, url, local, stop: stopAll };
   } catch (error) {
     await stopAll();
     throw error;

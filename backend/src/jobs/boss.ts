@@ -6,7 +6,10 @@ let current: PgBoss | null = null;
 /** Starts pg-boss (jobs on PostgreSQL) and creates the queues named by the job modules. */
 export async function startBoss(databaseUrl: string, queues: string[]): Promise<PgBoss> {
   const boss = new PgBoss({ connectionString: databaseUrl, schema: 'pgboss', max: 5 });
-  boss.on('error', (error) => logger.error({ err: error }, 'job queue error'));
+  boss.on('error', (error) => {
+    // Connections cut while stopping are expected; anything else is worth a line in the log.
+    if (current === boss) logger.error({ err: error }, 'job queue error');
+  });
   await boss.start();
   for (const name of queues) {
     if (!(await boss.getQueue(name))) await boss.createQueue(name);
@@ -24,5 +27,5 @@ export async function stopBoss(): Promise<void> {
   if (!current) return;
   const b = current;
   current = null;
-  await b.stop({ graceful: true, timeout: 10_000 });
+  await b.stop({ graceful: true, wait: true, timeout: 10_000 });
 }

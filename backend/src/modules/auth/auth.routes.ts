@@ -37,7 +37,7 @@ export function authRouter(config: Config): Router {
 
   router.get('/auth/login', publicRoute, async (req, res, next) => {
     try {
-      const configuration = await oidcConfiguration(config);
+      const configuration = await oidcConfiguration(config, { fresh: true });
       const codeVerifier = client.randomPKCECodeVerifier();
       const state = client.randomState();
       const nonce = client.randomNonce();

@@ -5,11 +5,15 @@ import { AppError } from '../../lib/errors';
 let cached: { issuer: string; configuration: client.Configuration } | null = null;
 
 /**
- * The identity provider's metadata, discovered on first use and kept. When the provider cannot be
- * reached the sign-in fails with a 503 that says so; signed-in sessions do not depend on it.
+ * The identity provider's metadata, discovered on first use and kept; a new sign-in asks afresh
+ * (`fresh`), so that a provider that is down gets a page that says so instead of a dead redirect.
+ * Signed-in sessions never depend on the provider.
  */
-export async function oidcConfiguration(config: Config): Promise<client.Configuration> {
-  if (cached && cached.issuer === config.oidc.issuer) return cached.configuration;
+export async function oidcConfiguration(
+  config: Config,
+  { fresh = false } = {},
+): Promise<client.Configuration> {
+  if (!fresh && cached && cached.issuer === config.oidc.issuer) return cached.configuration;
   try {
     const configuration = await client.discovery(
       new URL(config.oidc.issuer),

@@ -30,7 +30,7 @@ export type TreeDiagramProps = {
 type Datum = { node: TreeNode; id: string; steps: RuleStep[] };
 
 const NODE_GAP_X = 170;
-const LEVEL_GAP_Y = 120;
+const LEVEL_GAP_Y = 140;
 const R_MIN = 9;
 const R_MAX = 30;
 // Shade runs from warm sand (no leavers) to the signal colour (highest leaver share in the tree).
@@ -220,19 +220,24 @@ export function TreeDiagram({
           {links.map((link) => {
             const target = link.target as HierarchyPointNode<Datum>;
             const step = target.data.steps[target.data.steps.length - 1];
-            const midY = (link.source.y + target.y) / 2;
+            // Edges leave from below the parent's two-line label so they never cross it.
+            const startY = link.source.y + radius(link.source.data.node, rootN) + 32;
+            const midY = (startY + target.y) / 2;
             return (
               <g key={`edge-${target.data.id}`}>
                 <path
-                  d={`M${link.source.x},${link.source.y} C${link.source.x},${midY} ${target.x},${midY} ${target.x},${target.y}`}
+                  d={`M${link.source.x},${startY} C${link.source.x},${midY} ${target.x},${midY} ${target.x},${target.y}`}
                   fill="none"
                   stroke="#a2afb5"
                   strokeWidth={1.5}
                 />
                 <text
-                  x={(link.source.x + target.x) / 2}
-                  y={midY - 4}
+                  x={target.x}
+                  y={target.y - radius(target.data.node, rootN) - 8}
                   textAnchor="middle"
+                  paintOrder="stroke"
+                  stroke="#ffffff"
+                  strokeWidth={4}
                   className="fill-slate-600 text-[11px]"
                 >
                   {edgeLabel(step)}
@@ -262,6 +267,14 @@ export function TreeDiagram({
                 onKeyDown={(event) => onNodeKey(event, d)}
                 className="cursor-pointer outline-none [&:focus-visible>circle]:stroke-moss-600 [&:focus-visible>circle]:stroke-[4]"
               >
+                {/* The whole node and its label take the click, not only the circle. */}
+                <rect
+                  x={-NODE_GAP_X / 2 + 8}
+                  y={-r - 4}
+                  width={NODE_GAP_X - 16}
+                  height={r * 2 + 38}
+                  fill="transparent"
+                />
                 <circle
                   r={r}
                   fill={withheld ? `url(#${hatchId})` : shadeForShare(s ?? 0, maxShare)}

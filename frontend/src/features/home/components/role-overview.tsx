@@ -49,7 +49,7 @@ export function RoleOverview({ roles }: RoleOverviewProps) {
   return (
     <div className="grid gap-6 md:grid-cols-2">
       {held.map((role) => (
-        <Card key={role} title={`As ${ROLE_LABELS[role].toLowerCase()}`}>
+        <Card key={role} title={ROLE_LABELS[role]}>
           <p className="mb-3 text-slate-700">{roleTasks[role].summary}</p>
           <ul className="list-disc space-y-1 pl-5 text-sm text-slate-700">
             {roleTasks[role].tasks.map((task) => (
