@@ -11,9 +11,11 @@ import { pinoHttp } from 'pino-http';
 import type { Config } from './lib/config';
 import { AppError, errorHandler, notFoundHandler } from './lib/errors';
 import { logger } from './lib/logger';
+import { auditRouter } from './modules/audit/audit.routes';
 import { authRouter } from './modules/auth/auth.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
+import { policyRouter } from './modules/policy/policy.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
 
@@ -120,6 +122,8 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
 
   app.use(authRouter(config));
   // Feature routers, one line each.
+  app.use(policyRouter());
+  app.use(auditRouter());
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);
