@@ -15,7 +15,8 @@ async function rejection(promise: Promise<unknown>): Promise<IntakeError> {
   throw new Error('expected the upload to be rejected');
 }
 
-const SMALL_CSV = 'Staff No,Crew,Weekly Overtime Hours,Start Date\nQF-0001,Crew A,2.5,2024-01-15\nQF-0002,Crew B,0,2023-06-01\n';
+const SMALL_CSV =
+  'Staff No,Crew,Weekly Overtime Hours,Start Date\nQF-0001,Crew A,2.5,2024-01-15\nQF-0002,Crew B,0,2023-06-01\n';
 
 describe('reading an upload by its content', () => {
   it('reads a UTF-8 CSV into typed columns', async () => {
@@ -95,7 +96,10 @@ describe('reading an upload by its content', () => {
   it('reports an unbalanced quote with its row number', async () => {
     const error = await rejection(parseUpload(csvBytes('Staff No,Crew\nQF-1,A\nQF-2,"B\nQF-3,C\n')));
     expect([error.status, error.code]).toEqual([422, 'csv_unbalanced_quotes']);
-    expect(error.details).toEqual({ rows: [{ row: 3, reason: expect.stringMatching(/closing quote/) }], count: 1 });
+    expect(error.details).toEqual({
+      rows: [{ row: 3, reason: expect.stringMatching(/closing quote/) }],
+      count: 1,
+    });
   });
 
   it('lists rows with more values than the header, first 50 and a count', async () => {
@@ -109,8 +113,13 @@ describe('reading an upload by its content', () => {
   });
 
   it('lists values that do not fit their column, with row and column', async () => {
-    const rows = Array.from({ length: 30 }, (_, i) => `QF-${i},${i === 7 ? 'soon' : '2024-02-01'},${i === 9 ? 'lots' : i}`);
-    const error = await rejection(parseUpload(csvBytes(`Staff No,Start Date,Training Days\n${rows.join('\n')}\n`)));
+    const rows = Array.from(
+      { length: 30 },
+      (_, i) => `QF-${i},${i === 7 ? 'soon' : '2024-02-01'},${i === 9 ? 'lots' : i}`,
+    );
+    const error = await rejection(
+      parseUpload(csvBytes(`Staff No,Start Date,Training Days\n${rows.join('\n')}\n`)),
+    );
     expect([error.status, error.code]).toEqual([422, 'rows_invalid']);
     expect(error.details).toEqual({
       rows: [
@@ -158,7 +167,13 @@ describe('reading a workbook', () => {
   it('reads another sheet when the analyst names it, and says which exist when the name is wrong', async () => {
     const bytes = workbookBytes([
       { name: 'Staff', rows: [['Staff No'], ['QF-1']] },
-      { name: 'Leavers', rows: [['Staff No', 'Reason'], ['QF-9', 'Resignation']] },
+      {
+        name: 'Leavers',
+        rows: [
+          ['Staff No', 'Reason'],
+          ['QF-9', 'Resignation'],
+        ],
+      },
     ]);
     const parsed = await parseUpload(bytes, { sheet: 'Leavers' });
     expect(parsed.profile.map((c) => c.name)).toEqual(['Staff No', 'Reason']);
@@ -168,7 +183,16 @@ describe('reading a workbook', () => {
   });
 
   it('refuses merged cells, naming the ranges', async () => {
-    const bytes = workbookBytes([{ name: 'Staff', rows: [['Staff No', 'Crew'], ['QF-1', 'A']], merges: ['A1:B1'] }]);
+    const bytes = workbookBytes([
+      {
+        name: 'Staff',
+        rows: [
+          ['Staff No', 'Crew'],
+          ['QF-1', 'A'],
+        ],
+        merges: ['A1:B1'],
+      },
+    ]);
     const error = await rejection(parseUpload(bytes));
     expect([error.status, error.code]).toEqual([422, 'merged_cells']);
     expect(error.message).toMatch(/A1:B1/);
@@ -214,13 +238,17 @@ describe('reading a workbook', () => {
 
   it('refuses too many rows inside the worker (limit configurable)', async () => {
     const rows = [['Staff No'], ...Array.from({ length: 300 }, (_, i) => [`QF-${i}`])];
-    const error = await rejection(parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { maxRows: 100 } }));
+    const error = await rejection(
+      parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { maxRows: 100 } }),
+    );
     expect([error.status, error.code]).toEqual([413, 'too_many_rows']);
   });
 
   it('abandons a workbook that takes longer than the time limit', async () => {
     const rows = [['Staff No'], ...Array.from({ length: 50 }, (_, i) => [`QF-${i}`])];
-    const error = await rejection(parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { workbookTimeoutMs: 1 } }));
+    const error = await rejection(
+      parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { workbookTimeoutMs: 1 } }),
+    );
     expect([error.status, error.code]).toEqual([413, 'workbook_too_slow']);
   });
 });
