@@ -41,7 +41,14 @@ export function detectDirectIdentifier(
   column: TypedColumn,
 ): { kind: DirectIdentifierKind; reason: string } | null {
   const { name } = column;
-  if (column.type === 'number' || column.type === 'date' || column.type === 'yes-no') return null;
+  if (column.type === 'date' || column.type === 'yes-no') return null;
+  if (column.type === 'number') {
+    // Only the header can tell: a phone number saved as a number cell has lost its formatting.
+    if (NATIONAL_ID_HEADER.test(name))
+      return { kind: 'national-id', reason: 'national ID numbers identify a person directly' };
+    if (PHONE_HEADER.test(name)) return { kind: 'phone', reason: 'phone numbers identify a person directly' };
+    return null;
+  }
   if (NATIONAL_ID_HEADER.test(name) || shareMatching(column, (t) => NATIONAL_ID_VALUE.test(t)) >= 0.5) {
     return { kind: 'national-id', reason: 'national ID numbers identify a person directly' };
   }

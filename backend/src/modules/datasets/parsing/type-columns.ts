@@ -32,7 +32,9 @@ export function isMissing(value: Cell): boolean {
 
 /** Numbers as exports write them: 1234.5, 1,234.5, or 1234,5 where values are separated by semicolons. */
 export function parseNumber(text: string, decimalComma = false): number | null {
-  const value = text.replace(/\s+/g, '');
+  const value = text.trim();
+  // Leading zeros mark codes (phone numbers, payroll numbers), not quantities.
+  if (/^[-+]?0\d/.test(value)) return null;
   if (decimalComma && /^[-+]?\d+(,\d+)?$/.test(value)) return Number(value.replace(',', '.'));
   if (/^[-+]?(\d+|\d{1,3}(,\d{3})+)?(\.\d+)?([eE][-+]?\d+)?$/.test(value) && /\d/.test(value)) {
     return Number(value.replace(/,/g, ''));
