@@ -166,7 +166,8 @@ function typeColumn(
   }
 
   const distinctShare = distinct.size / n;
-  if (looksLikeId && distinctShare >= 0.9) return { name, type: 'identifier', values: texts };
+  // An ID column stays an identifier even with repeats, so that the mapping can name the duplicated rows.
+  if (looksLikeId) return { name, type: 'identifier', values: texts };
   let codeLike = 0;
   let totalLength = 0;
   let words = 0;

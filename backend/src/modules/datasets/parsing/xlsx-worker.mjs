@@ -2,7 +2,8 @@
 // xlsx package (its npm release has published advisories for crafted files). It sends back plain
 // data only: sheet names, and the chosen sheet as columns of string | number | boolean | null.
 import { parentPort, workerData } from 'node:worker_threads';
-import XLSX from 'xlsx';
+// The mini build reads XLSX only (no legacy formats, no codepage tables): less to load, less to attack.
+import XLSX from 'xlsx/dist/xlsx.mini.min.js';
 
 function fail(code, status, message, details) {
   parentPort.postMessage({ ok: false, code, status, message, details });
