@@ -1,0 +1,145 @@
+import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import path from 'node:path';
+import connectPgSimple from 'connect-pg-simple';
+import express, { type RequestHandler } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import session from 'express-session';
+import helmet from 'helmet';
+import type pg from 'pg';
+import { pinoHttp } from 'pino-http';
+import type { Config } from './lib/config';
+import { AppError, errorHandler, notFoundHandler } from './lib/errors';
+import { logger } from './lib/logger';
+import { authRouter } from './modules/auth/auth.routes';
+import { mailboxRouter } from './modules/dev/mailbox.routes';
+import { healthRouter } from './modules/health/health.routes';
+
+export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
+
+/**
+ * State-changing requests must come from our own pages: a browser always sends Origin on a
+ * cross-site POST, and Sec-Fetch-Site tells the rest. Non-browser clients send neither.
+ */
+function sameOriginOnly(appUrl: string): RequestHandler {
+  const ownOrigin = new URL(appUrl).origin;
+  return (req, _res, next) => {
+    if (['GET', 'HEAD', 'OPTIONS'].includes(req.method)) return next();
+    const origin = req.get('origin');
+    const site = req.get('sec-fetch-site');
+    if ((origin && origin !== ownOrigin) || site === 'cross-site') {
+      return next(
+        new AppError('cross_site_request', 403, 'This request came from another site and was refused.'),
+      );
+    }
+    next();
+  };
+}
+
+export function createApp({ config, sessionPool, mailSink }: AppOptions): express.Express {
+  const app = express();
+  app.disable('x-powered-by');
+  if (config.trustProxy) app.set('trust proxy', config.trustProxy);
+
+  app.use(
+    pinoHttp({
+      logger,
+      genReqId: (req, res) => {
+        const id = (req.headers['x-request-id'] as string) || randomUUID();
+        res.setHeader('x-request-id', id);
+        return id;
+      },
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      serializers: {
+        req: (req) => ({ id: req.id, method: req.method, url: req.url?.split('?')[0] }),
+        res: (res) => ({ statusCode: res.statusCode }),
+      },
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'font-src': ["'self'"],
+          'img-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+          'form-action': ["'self'", new URL(config.oidc.issuer).origin],
+          'frame-ancestors': ["'none'"],
+          'upgrade-insecure-requests': config.production ? [] : null,
+        },
+      },
+      strictTransportSecurity: config.production,
+    }),
+  );
+
+  // Health needs no session: it must answer even while PostgreSQL is down.
+  app.use(healthRouter());
+
+  app.use(express.json({ limit: '1mb' }));
+  const PgStore = connectPgSimple(session);
+  app.use(
+    session({
+      name: 'coppice.sid',
+      secret: config.sessionSecret,
+      store: new PgStore({
+        pool: sessionPool,
+        tableName: 'session',
+        createTableIfMissing: false,
+        pruneSessionInterval: 600,
+      }),
+      resave: false,
+      saveUninitialized: false,
+      rolling: true,
+      cookie: {
+        httpOnly: true,
+        sameSite: 'lax',
+        secure: config.production ? true : 'auto',
+        maxAge: 8 * 60 * 60 * 1000,
+        path: '/',
+      },
+    }),
+  );
+  app.use(sameOriginOnly(config.appUrl));
+  app.use(
+    '/auth',
+    rateLimit({
+      windowMs: 60_000,
+      limit: Number(process.env.AUTH_RATE_LIMIT ?? 300),
+      standardHeaders: 'draft-8',
+      legacyHeaders: false,
+      handler: (_req, res) => {
+        res.status(429).json({
+          error: { code: 'too_many_requests', message: 'Too many sign-in attempts; wait a minute.' },
+        });
+      },
+    }),
+  );
+
+  app.use(authRouter(config));
+  // Feature routers, one line each.
+  if (mailSink && !config.production) app.use(mailboxRouter());
+
+  app.use('/api', notFoundHandler);
+  app.use('/auth', notFoundHandler);
+
+  const webRoot = path.resolve('dist/web');
+  if (existsSync(path.join(webRoot, 'index.html'))) {
+    app.use(express.static(webRoot, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => {
+      res.sendFile(path.join(webRoot, 'index.html'));
+    });
+  } else {
+    app.get('/{*splat}', (_req, res) => {
+      res
+        .status(503)
+        .type('text')
+        .send('The Coppice web app is not built yet: run `npm run build` (npm start does it).');
+    });
+  }
+
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,34 @@
+import { DataSource } from 'typeorm';
+import { AuditEvent } from '../entities/audit-event.entity';
+import { User } from '../entities/user.entity';
+import { Foundation1796150136015 } from '../migrations/1796150136015-foundation';
+
+/** Every entity and migration, listed (not globbed) so they load the same under tsx and vitest. */
+export const entities = [User, AuditEvent];
+export const migrations = [Foundation1796150136015];
+
+export function createDataSource(url: string): DataSource {
+  return new DataSource({
+    type: 'postgres',
+    url,
+    entities,
+    migrations,
+    migrationsTableName: 'typeorm_migrations',
+    synchronize: false,
+    uuidExtension: 'pgcrypto',
+    logging: false,
+    extra: { max: 20, connectionTimeoutMillis: 5000 },
+  });
+}
+
+let current: DataSource | null = null;
+
+/** The process's data source, set once at start-up by the runtime. Only repositories call this. */
+export function db(): DataSource {
+  if (!current) throw new Error('The database is not initialised yet');
+  return current;
+}
+
+export function setDataSource(dataSource: DataSource | null): void {
+  current = dataSource;
+}

@@ -1,0 +1,127 @@
+import type { Server } from 'node:http';
+import pg from 'pg';
+import type { DataSource } from 'typeorm';
+import { createApp } from './app';
+import { seedDemo } from './demo/seed';
+import { startLocalIdp } from './idp/local-idp';
+import { boss, startBoss, stopBoss } from './jobs/boss';
+import { QUEUES, registerWorkers } from './jobs/registry';
+import { type Config, localIdpCookieKey } from './lib/config';
+import { createDataSource, setDataSource } from './lib/db';
+import { logger } from './lib/logger';
+import { startMailSink } from './mail/mail-sink';
+import { configureMailer } from './mail/mailer';
+
+export type Running = {
+  config: Config;
+  app: ReturnType<typeof createApp>;
+  dataSource: DataSource;
+  url: string;
+  stop: () => Promise<void>;
+};
+
+export type StartOptions = {
+  /** Run migrations before serving (with an advisory lock, so several processes may start at once). */
+  migrate?: boolean;
+  /** Seed the invented demo organisation (development and demo only). */
+  seed?: boolean;
+  /** Listen on config.port; false for supertest-only use. */
+  listen?: boolean;
+  /** Start the local identity provider and mail sink where the config asks for them. */
+  localServices?: boolean;
+};
+
+const MIGRATION_LOCK = 7_460_312;
+
+export async function runMigrations(dataSource: DataSource): Promise<void> {
+  const runner = dataSource.createQueryRunner();
+  await runner.connect();
+  try {
+    await runner.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK]);
+    await dataSource.runMigrations({ transaction: 'each' });
+  } finally {
+    await runner.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK]).catch(() => {});
+    await runner.release();
+  }
+}
+
+/** Starts everything one Coppice process needs, in order, and returns a handle that stops it all. */
+export async function startCoppice(config: Config, options: StartOptions = {}): Promise<Running> {
+  const { migrate = true, seed = false, listen = true, localServices = true } = options;
+  const stops: Array<() => Promise<void>> = [];
+  const stopAll = async () => {
+    for (const stop of stops.reverse()) {
+      await stop().catch((error) => logger.warn({ err: error }, 'stopping a part failed'));
+    }
+  };
+
+  try {
+    if (localServices && config.localIdp) {
+      const idp = await startLocalIdp({
+        port: config.localIdp.port,
+        clientId: config.oidc.clientId,
+        clientSecret: config.oidc.clientSecret,
+        redirectUris: [`${config.appUrl}/auth/callback`],
+        postLogoutRedirectUris: [`${config.appUrl}/`],
+        password: config.localIdp.demoPassword,
+        cookieKey: localIdpCookieKey(config),
+        dataDir: config.dataDir,
+      });
+      stops.push(idp.stop);
+    }
+    let mailSink = false;
+    if (localServices && config.mail.sinkPort !== null) {
+      const sink = await startMailSink(config.mail.sinkPort);
+      stops.push(sink.stop);
+      mailSink = true;
+    }
+    configureMailer(config);
+
+    const dataSource = createDataSource(config.databaseUrl);
+    await dataSource.initialize();
+    setDataSource(dataSource);
+    stops.push(async () => {
+      setDataSource(null);
+      await dataSource.destroy();
+    });
+    if (migrate) await runMigrations(dataSource);
+
+    await startBoss(config.databaseUrl, QUEUES);
+    stops.push(stopBoss);
+    if (config.runWorkers) await registerWorkers(boss());
+
+    if (seed) await seedDemo(config);
+
+    const sessionPool = new pg.Pool({
+      connectionString: config.databaseUrl,
+      max: 10,
+      connectionTimeoutMillis: 5000,
+    });
+    sessionPool.on('error', (error) => logger.warn({ err: error }, 'session pool error'));
+    stops.push(() => sessionPool.end());
+
+    const app = createApp({ config, sessionPool, mailSink });
+    let url = config.appUrl;
+    if (listen) {
+      const server: Server = await new Promise((resolve, reject) => {
+        const s = app.listen(config.port, config.host, () => resolve(s));
+        s.on('error', reject);
+      });
+      server.keepAliveTimeout = 65_000;
+      stops.push(
+        () =>
+          new Promise<void>((resolve) => {
+            server.close(() => resolve());
+            server.closeIdleConnections();
+            setTimeout(() => server.closeAllConnections(), 5000).unref();
+          }),
+      );
+      const address = server.address();
+      if (address && typeof address === 'object') url = `http://${config.host}:${address.port}`;
+    }
+    return { config, app, dataSource, url, stop: stopAll };
+  } catch (error) {
+    await stopAll();
+    throw error;
+  }
+}

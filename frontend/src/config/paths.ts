@@ -1,0 +1,15 @@
+/** Every route of the frontend: its pattern for the router and a builder for links. */
+export const paths = {
+  home: {
+    path: '/',
+    href: () => '/',
+  },
+  signIn: {
+    path: '/auth/login',
+    href: (returnTo: string) => `/auth/login?returnTo=${encodeURIComponent(returnTo)}`,
+  },
+  signOut: {
+    path: '/auth/logout',
+    href: () => '/auth/logout',
+  },
+} as const;

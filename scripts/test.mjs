@@ -1,0 +1,77 @@
+// `npm test`: the same set-up as `npm start`, for a throw-away PostgreSQL cluster of its own, then
+// every check: lint, type-check, migrations in step with the entities, build, and all tests
+// (unit, API and the browser suite). Extra arguments go to vitest (e.g. `npm test -- tests/backend/auth`).
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import {
+  aptInstall,
+  ensureDatabase,
+  ensureNodeModules,
+  ensurePostgres,
+  freePort,
+  initCluster,
+  log,
+  removeCluster,
+  startCluster,
+} from './lib/pg.mjs';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+process.chdir(root);
+const started = Date.now();
+const vitestArgs = process.argv.slice(2);
+
+ensureNodeModules(root);
+const bin = ensurePostgres();
+// Debian packages the test suite needs: Chromium for the browser suite, scikit-learn as a reference.
+const missing = [];
+if (!existsSync('/usr/bin/chromium')) missing.push('chromium');
+if (spawnSync('/usr/bin/python3', ['-c', 'import sklearn'], { stdio: 'ignore' }).status !== 0)
+  missing.push('python3-sklearn');
+if (missing.length) aptInstall(missing);
+
+const dir = path.join(mkdtempSync(path.join(os.tmpdir(), 'coppice-test-')), 'pg');
+const port = await freePort();
+initCluster(bin, dir);
+startCluster(bin, dir, port, { fast: true });
+log(`throw-away PostgreSQL on 127.0.0.1:${port}`);
+const adminUrl = `postgres://postgres@127.0.0.1:${port}/postgres`;
+
+const env = {
+  ...process.env,
+  NODE_ENV: 'test',
+  TEST_PG_ADMIN_URL: adminUrl,
+  LOG_LEVEL: process.env.LOG_LEVEL ?? 'warn',
+};
+const steps = [];
+function step(name, cmd, args, extraEnv = {}) {
+  const t0 = Date.now();
+  log(`${name}…`);
+  const result = spawnSync(cmd, args, { stdio: 'inherit', env: { ...env, ...extraEnv } });
+  const seconds = ((Date.now() - t0) / 1000).toFixed(1);
+  steps.push(`${result.status === 0 ? 'ok  ' : 'FAIL'} ${name} (${seconds} s)`);
+  return result.status === 0;
+}
+
+let ok = true;
+try {
+  if (vitestArgs.length === 0) {
+    ok = step('lint (biome)', 'npx', ['biome', 'check', '.']) && ok;
+    ok = step('type-check (tsc)', 'npx', ['tsc', '--noEmit', '-p', '.']) && ok;
+    ensureDatabase(bin, port, 'coppice');
+    ok =
+      step('migrations match the entities', 'npx', ['tsx', 'scripts/migration-check.ts'], {
+        DATABASE_URL: `postgres://coppice@127.0.0.1:${port}/coppice`,
+      }) && ok;
+    ok = step('build the web app (vite)', 'npx', ['vite', 'build', '--logLevel', 'warn']) && ok;
+  }
+  ok = step('tests (vitest: node, web, e2e)', 'npx', ['vitest', 'run', ...vitestArgs]) && ok;
+} finally {
+  removeCluster(bin, dir);
+}
+log(
+  `summary after ${((Date.now() - started) / 1000).toFixed(0)} s:\n${steps.map((s) => `  ${s}`).join('\n')}`,
+);
+process.exit(ok ? 0 : 1);

@@ -1,0 +1,143 @@
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { startSignIn } from '../../helpers/sign-in';
+import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
+
+let coppice: TestCoppice;
+beforeAll(async () => {
+  coppice = await startTestCoppice();
+});
+afterAll(async () => {
+  await coppice?.stop();
+});
+
+describe('single sign-on through the local identity provider', () => {
+  it.each([
+    [ACCOUNTS.analyst, ['analyst']],
+    [ACCOUNTS.privacy, ['privacy_officer']],
+    [ACCOUNTS.managerNorth, ['manager']],
+    [ACCOUNTS.managerSouth, ['manager']],
+    [ACCOUNTS.lead, ['analyst', 'privacy_officer']],
+  ])('signs %s in and GET /api/me returns the roles %j', async (email, roles) => {
+    const agent = await coppice.signIn(email);
+    const me = await agent.get('/api/me');
+    expect(me.status).toBe(200);
+    expect(me.body.email).toBe(email);
+    expect(me.body.roles.sort()).toEqual([...roles].sort());
+    expect(me.body.name).toEqual(expect.any(String));
+  });
+
+  it('sends the browser back to the page it asked for', async () => {
+    const steps = await startSignIn(coppice, ACCOUNTS.analyst, 'quillfern-demo');
+    const callback = await steps.agent.get(steps.callbackUrl!.pathname + steps.callbackUrl!.search);
+    expect(callback.status).toBe(302);
+    expect(callback.headers.location).toBe('/datasets');
+  });
+
+  it('refuses a wrong password with a clear message on the same page', async () => {
+    const steps = await startSignIn(coppice, ACCOUNTS.analyst, 'not-the-password');
+    expect(steps.callbackUrl).toBeNull();
+    expect(steps.loginResponse.status).toBe(401);
+    const html = await steps.loginResponse.text();
+    expect(html).toContain('do not match');
+    expect(html).toContain('name="username"');
+    expect((await steps.agent.get('/api/me')).status).toBe(401);
+  });
+
+  it('refuses a callback whose state was tampered with', async () => {
+    const steps = await startSignIn(coppice, ACCOUNTS.analyst, 'quillfern-demo');
+    const url = steps.callbackUrl!;
+    url.searchParams.set('state', 'forged-state-value');
+    const callback = await steps.agent.get(url.pathname + url.search);
+    expect(callback.status).toBe(400);
+    expect(callback.text).toContain('could not be verified');
+    expect((await steps.agent.get('/api/me')).status).toBe(401);
+  });
+
+  it('issues a new session id at sign-in, so a session planted earlier is worthless', async () => {
+    const steps = await startSignIn(coppice, ACCOUNTS.analyst, 'quillfern-demo');
+    const before = /coppice\.sid=([^;]+)/.exec(
+      String(
+        steps.agent.jar.getCookie('coppice.sid', {
+          path: '/',
+          domain: '127.0.0.1',
+          secure: false,
+          script: false,
+        }),
+      ),
+    )?.[1];
+    await steps.agent.get(steps.callbackUrl!.pathname + steps.callbackUrl!.search);
+    const afterCookie = steps.agent.jar.getCookie('coppice.sid', {
+      path: '/',
+      domain: '127.0.0.1',
+      secure: false,
+      script: false,
+    });
+    expect(afterCookie?.value).toBeTruthy();
+    expect(afterCookie?.value).not.toBe(before);
+    if (before) {
+      const planted = await request(coppice.app).get('/api/me').set('cookie', `coppice.sid=${before}`);
+      expect(planted.status).toBe(401);
+    }
+  });
+
+  it('ends the session on sign-out, also for a copy of the old cookie', async () => {
+    const agent = await coppice.signIn(ACCOUNTS.privacy);
+    const cookie = agent.jar.getCookie('coppice.sid', {
+      path: '/',
+      domain: '127.0.0.1',
+      secure: false,
+      script: false,
+    })!;
+    const out = await agent.post('/auth/logout').set('accept', 'application/json');
+    expect(out.status).toBe(200);
+    expect(out.body.redirectTo).toContain('/oidc/session/end');
+    expect((await agent.get('/api/me')).status).toBe(401);
+    const replay = await request(coppice.app).get('/api/me').set('cookie', `coppice.sid=${cookie.value}`);
+    expect(replay.status).toBe(401);
+  });
+
+  it('records sign-ins in the audit trail without personal data beyond the actor', async () => {
+    await coppice.signIn(ACCOUNTS.managerSouth);
+    const rows = await coppice.sql<{ action: string; actor_email: string }>(
+      "SELECT action, actor_email FROM audit_events WHERE action = 'auth.sign_in' AND actor_email = $1",
+      [ACCOUNTS.managerSouth],
+    );
+    expect(rows.length).toBeGreaterThanOrEqual(1);
+  });
+});
+
+describe('the session cookie and security headers', () => {
+  it('sets an httpOnly, SameSite=Lax session cookie', async () => {
+    const steps = await startSignIn(coppice, ACCOUNTS.analyst, 'quillfern-demo');
+    const callback = await steps.agent.get(steps.callbackUrl!.pathname + steps.callbackUrl!.search);
+    const setCookie = String(callback.headers['set-cookie']);
+    expect(setCookie).toMatch(/coppice\.sid=/);
+    expect(setCookie).toMatch(/HttpOnly/i);
+    expect(setCookie).toMatch(/SameSite=Lax/i);
+  });
+
+  it('answers 401 JSON on /api/* when signed out', async () => {
+    const res = await request(coppice.app).get('/api/me');
+    expect(res.status).toBe(401);
+    expect(res.body.error.code).toBe('not_signed_in');
+  });
+
+  it('sends a content security policy and no x-powered-by', async () => {
+    const res = await request(coppice.app).get('/api/health');
+    expect(res.headers['content-security-policy']).toContain("default-src 'self'");
+    expect(res.headers['x-powered-by']).toBeUndefined();
+    expect(res.headers['x-content-type-options']).toBe('nosniff');
+  });
+
+  it('refuses a state-changing request from another site', async () => {
+    const agent = await coppice.signIn(ACCOUNTS.analyst);
+    const res = await agent
+      .post('/auth/logout')
+      .set('origin', 'http://evil.example')
+      .set('accept', 'application/json');
+    expect(res.status).toBe(403);
+    expect(res.body.error.code).toBe('cross_site_request');
+    expect((await agent.get('/api/me')).status).toBe(200);
+  });
+});
