@@ -132,20 +132,38 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
   const splittable = (n: number, positive: number, depth: number) =>
     depth < maxDepth && n >= minSplit && positive > 0 && positive < n;
 
+  // with every weight 1 the weight column equals the count, so it is filled in afterwards
+  let unweighted = true;
+  for (let i = 0; i < rows.length && unweighted; i++) if (w[rows[i]] !== 1) unweighted = false;
+  const weightedLabel = new Float64Array(w.length);
+  for (let i = 0; i < rows.length; i++) weightedLabel[rows[i]] = w[rows[i]] * label[rows[i]];
+  const pool: Float64Array[] = [];
+  const release = (h: Float64Array | null) => {
+    if (h) pool.push(h);
+  };
   const buildHistogram = (start: number, end: number): Float64Array => {
-    const h = new Float64Array(3 * data.totalSlots);
+    const h = pool.pop()?.fill(0) ?? new Float64Array(3 * data.totalSlots);
     for (let f = 0; f < features.length; f++) {
       const bins = features[f].bins;
       const base = 3 * features[f].offset;
-      for (let i = start; i < end; i++) {
-        const r = rows[i];
-        const j = base + 3 * bins[r];
-        const wr = w[r];
-        h[j] += 1;
-        h[j + 1] += wr;
-        if (label[r] === 1) h[j + 2] += wr;
+      if (unweighted) {
+        for (let i = start; i < end; i++) {
+          const r = rows[i];
+          const j = base + 3 * bins[r];
+          h[j] += 1;
+          h[j + 2] += label[r];
+        }
+      } else {
+        for (let i = start; i < end; i++) {
+          const r = rows[i];
+          const j = base + 3 * bins[r];
+          h[j] += 1;
+          h[j + 1] += w[r];
+          h[j + 2] += weightedLabel[r];
+        }
       }
     }
+    if (unweighted) for (let j = 0; j < h.length; j += 3) h[j + 1] = h[j];
     return h;
   };
 
@@ -191,12 +209,18 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
       else nodes[item.parent].right = id;
     }
     const hist = item.hist;
-    if (!hist || node.impurity <= EPSILON) continue;
+    if (!hist) continue;
+    if (node.impurity <= EPSILON) {
+      release(hist);
+      continue;
+    }
 
     const best = findBestSplit(hist, features, isGini, n, item.weight, item.weightedPositive, minLeaf);
-    if (!best) continue;
-    const improvement = (nodeCost - best.cost) / totalWeight;
-    if (improvement + EPSILON < options.minImpurityDecrease) continue;
+    const improvement = best ? (nodeCost - best.cost) / totalWeight : 0;
+    if (!best || improvement + EPSILON < options.minImpurityDecrease) {
+      release(hist);
+      continue;
+    }
 
     // partition rows: left ones stay in front (stable), right ones go through the scratch buffer
     const f = features[best.feature];
@@ -246,7 +270,9 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
       for (let j = 0; j < hist.length; j++) hist[j] -= small[j];
       leftHist = leftSmaller ? small : hist;
       rightHist = leftSmaller ? hist : small;
-    }
+      if (!leftNeeds) release(leftHist);
+      if (!rightNeeds) release(rightHist);
+    } else release(hist);
     stack.push({
       start: l,
       end: item.end,
