@@ -13,7 +13,17 @@ export type GrowOptions = {
   classWeight: ClassWeight;
   /** the privacy policy's minimum group size: no leaf is smaller than max(minLeaf, k) */
   k: number;
+  /**
+   * a categorical level with fewer rows at a node is not split off from the levels never seen
+   * there (default: 1 per 1,000 training rows, from 1 to 100)
+   */
+  minCategoryRows?: number;
 };
+
+/** One row per thousand, 1 to 100, after LightGBM's min_data_per_group of 100 (common practice). */
+export function defaultMinCategoryRows(trainingRows: number): number {
+  return Math.min(100, Math.max(1, Math.floor(trainingRows / 1000)));
+}
 
 /** Training data after binning: features, a 0/1 label and optional row weights, indexed by row. */
 export type TrainingData = {
@@ -114,6 +124,7 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
   const minLeaf = effectiveMinLeaf(options);
   const minSplit = Math.max(2, Math.floor(options.minSplit), 2 * minLeaf);
   const maxDepth = Math.max(0, Math.floor(options.maxDepth));
+  const minCategoryRows = options.minCategoryRows ?? defaultMinCategoryRows(rows.length);
   const w = rowWeights(data, rows, options.classWeight);
   const scratch = new Int32Array(rows.length);
   const nodes: GrownNode[] = [];
@@ -215,7 +226,16 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
       continue;
     }
 
-    const best = findBestSplit(hist, features, isGini, n, item.weight, item.weightedPositive, minLeaf);
+    const best = findBestSplit(
+      hist,
+      features,
+      isGini,
+      n,
+      item.weight,
+      item.weightedPositive,
+      minLeaf,
+      minCategoryRows,
+    );
     const improvement = best ? (nodeCost - best.cost) / totalWeight : 0;
     if (!best || improvement + EPSILON < options.minImpurityDecrease) {
       release(hist);
@@ -307,6 +327,7 @@ function findBestSplit(
   weight: number,
   weightedPositive: number,
   minLeaf: number,
+  minCategoryRows: number,
 ): Best | null {
   let best: Best | null = null;
   // a later candidate must beat the best by more than rounding error, so ties keep the first
@@ -324,7 +345,10 @@ function findBestSplit(
 
     // bins with rows at this node, in split order
     const order: number[] = [];
-    for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] > 0) order.push(b);
+    // rare levels at this node stay on the right with levels never seen: ordering many small
+    // levels by their share mostly fits noise
+    const least = feature.kind === 'categorical' ? Math.max(1, minCategoryRows) : 1;
+    for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] >= least) order.push(b);
     if (order.length < 2) continue;
     if (feature.kind === 'categorical') {
       // ordering levels by their (weighted) share of leavers gives the optimal binary split
