@@ -20,7 +20,8 @@ import { trainModel } from '../backend/src/modeling/train.js';
 import { predict } from '../backend/src/modeling/tree-json.js';
 import { syntheticStaff } from './synthetic-staff.js';
 
-const PYTHON = '/usr/bin/python3';
+// Debian's python3-sklearn lives beside the system Python, not a user-installed one
+const PYTHON = process.env.BENCH_PYTHON ?? '/usr/bin/python3';
 const FIT = { criterion: 'gini' as const, maxDepth: 8, minLeaf: 5, k: 1, pruning: 'none' as const };
 
 function median(values: number[]): number {
@@ -188,7 +189,7 @@ function main() {
       row['scikit-learn AUC'] = s.auc.toFixed(3);
     }
     table.push(row);
-    console.error(`done: ${rows} rows`);
+    console.error(JSON.stringify(row));
   }
   console.table(table);
   if (!withSklearn) console.log('scikit-learn not run (missing, or --no-sklearn)');

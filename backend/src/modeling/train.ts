@@ -171,8 +171,8 @@ export function trainModel(
       );
       const labels = Array.from(fold.validation, (r) => y[r]);
       foldMetrics.push(computeMetrics(labels, scores, threshold));
-      pooledRows.push(...fold.validation);
-      pooledScores.push(...scores);
+      for (const r of fold.validation) pooledRows.push(r);
+      for (const score of scores) pooledScores.push(score);
     }
     const keys = Object.keys(foldMetrics[0]) as (keyof Metrics)[];
     crossValidation = {
