@@ -12,6 +12,7 @@ import type { Config } from './lib/config';
 import { AppError, errorHandler, notFoundHandler } from './lib/errors';
 import { logger } from './lib/logger';
 import { authRouter } from './modules/auth/auth.routes';
+import { datasetsRouter } from './modules/datasets/datasets.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
 
@@ -120,6 +121,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
 
   app.use(authRouter(config));
   // Feature routers, one line each.
+  app.use(datasetsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);
