@@ -97,6 +97,13 @@ function yearBefore(iso: string): string {
   return date.toISOString().slice(0, 10);
 }
 
+function monthEnd(iso: string): string {
+  const date = new Date(`${iso.slice(0, 7)}-01T00:00:00Z`);
+  date.setUTCMonth(date.getUTCMonth() + 1);
+  date.setUTCDate(0);
+  return date.toISOString().slice(0, 10);
+}
+
 /** Starting values: the saved mapping, or sensible guesses from the column names. */
 export function initialValues(dataset: DatasetDetail): MappingFormValues {
   const stored = dataset.columns.filter((c) => !dataset.droppedColumns.includes(c.name));
@@ -122,7 +129,7 @@ export function initialValues(dataset: DatasetDetail): MappingFormValues {
   }
   const exitDate = find(stored, /leav|exit|termination|end date/i, ['date']);
   const exitColumn = stored.find((c) => c.name === exitDate);
-  const windowEnd = typeof exitColumn?.max === 'string' ? exitColumn.max : '';
+  const windowEnd = typeof exitColumn?.max === 'string' ? monthEnd(exitColumn.max) : '';
   const reason = find(stored, /reason/i, ['category']);
   const reasonValues = stored.find((c) => c.name === reason)?.topCategories ?? [];
   return {
