@@ -2,6 +2,8 @@ import { useState } from 'react';
 import { createBrowserRouter, type RouteObject, RouterProvider } from 'react-router-dom';
 import { paths } from '../config/paths';
 import { AppRootRoute } from './routes/app-root';
+import { DatasetRoute } from './routes/dataset';
+import { DatasetsRoute } from './routes/datasets';
 import { HomeRoute } from './routes/home';
 import { NotFoundRoute } from './routes/not-found';
 
@@ -12,6 +14,8 @@ export const routes: RouteObject[] = [
     element: <AppRootRoute />,
     children: [
       { index: true, element: <HomeRoute /> },
+      { path: paths.datasets.path, element: <DatasetsRoute /> },
+      { path: paths.dataset.path, element: <DatasetRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

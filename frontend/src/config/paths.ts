@@ -4,6 +4,14 @@ export const paths = {
     path: '/',
     href: () => '/',
   },
+  datasets: {
+    path: '/datasets',
+    href: () => '/datasets',
+  },
+  dataset: {
+    path: '/datasets/:id',
+    href: (id: string) => `/datasets/${encodeURIComponent(id)}`,
+  },
   signIn: {
     path: '/auth/login',
     href: (returnTo: string) => `/auth/login?returnTo=${encodeURIComponent(returnTo)}`,
