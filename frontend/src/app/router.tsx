@@ -2,8 +2,10 @@ import { useState } from 'react';
 import { createBrowserRouter, type RouteObject, RouterProvider } from 'react-router-dom';
 import { paths } from '../config/paths';
 import { AppRootRoute } from './routes/app-root';
+import { AuditTrailRoute } from './routes/audit-trail';
 import { HomeRoute } from './routes/home';
 import { NotFoundRoute } from './routes/not-found';
+import { PrivacyPolicyRoute } from './routes/privacy-policy';
 
 /** Feature screens add their route here, as children of the shell. */
 export const routes: RouteObject[] = [
@@ -12,6 +14,8 @@ export const routes: RouteObject[] = [
     element: <AppRootRoute />,
     children: [
       { index: true, element: <HomeRoute /> },
+      { path: paths.privacyPolicy.path, element: <PrivacyPolicyRoute /> },
+      { path: paths.auditTrail.path, element: <AuditTrailRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

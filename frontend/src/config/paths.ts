@@ -4,6 +4,14 @@ export const paths = {
     path: '/',
     href: () => '/',
   },
+  privacyPolicy: {
+    path: '/privacy-policy',
+    href: () => '/privacy-policy',
+  },
+  auditTrail: {
+    path: '/audit',
+    href: () => '/audit',
+  },
   signIn: {
     path: '/auth/login',
     href: (returnTo: string) => `/auth/login?returnTo=${encodeURIComponent(returnTo)}`,
