@@ -114,14 +114,16 @@ describe('the audit trail', () => {
             action: 'policy.change',
             objectType: 'policy',
             objectId: '4',
-            details: { reason: 'Works council' },
+            details: { reason: 'Works council', k: { from: 5, to: 7 }, blocked: ['Gender'], unblocked: [] },
           },
         ]}
       />,
     );
     expect(screen.getByText('Changed the privacy policy')).toBeTruthy();
     expect(screen.getByText('policy.change')).toBeTruthy();
-    expect(screen.getByText('reason: Works council')).toBeTruthy();
+    expect(
+      screen.getByText('reason: Works council; k: 5 → 7; blocked: Gender; unblocked: none'),
+    ).toBeTruthy();
   });
 
   it('exports exactly the filtered lines, not just the page on screen', () => {

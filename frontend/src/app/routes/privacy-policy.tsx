@@ -45,7 +45,7 @@ export function PrivacyPolicyRoute() {
               onSubmit={async (body) => setSaved((await update.mutateAsync(body)).version)}
             />
           </Card>
-          <Card title="Earlier versions">
+          <Card title="Version history">
             {versions.isError && (
               <ErrorNotice error={versions.error} title="The history could not be loaded" />
             )}

@@ -1,9 +1,18 @@
 import { AUDIT_ACTION_LABELS, type AuditEventView } from '../../../../../shared/audit';
 import { DataTable, type DataTableColumn } from '../../../components/data-table';
 
-function formatDetails(details: Record<string, unknown>): string {
+function formatValue(value: unknown): string {
+  if (Array.isArray(value)) return value.length ? value.map(formatValue).join(', ') : 'none';
+  if (value && typeof value === 'object' && 'from' in value && 'to' in value) {
+    const { from, to } = value as { from: unknown; to: unknown };
+    return from === to ? formatValue(to) : `${formatValue(from)} → ${formatValue(to)}`;
+  }
+  return typeof value === 'string' ? value : JSON.stringify(value);
+}
+
+export function formatDetails(details: Record<string, unknown>): string {
   return Object.entries(details)
-    .map(([key, value]) => `${key}: ${typeof value === 'string' ? value : JSON.stringify(value)}`)
+    .map(([key, value]) => `${key}: ${formatValue(value)}`)
     .join('; ');
 }
 
