@@ -22,7 +22,7 @@ export type TreeDiagramProps = {
   label: string;
   /** the segment rule in words; defaults to `segmentRule(steps)` */
   describeRule?: (steps: RuleStep[]) => string;
-  /** height of the drawing area in pixels (default 460) */
+  /** the largest height of the drawing area in pixels (default 460); small trees take less */
   height?: number;
   onSelect?: (segment: SelectedSegment | null) => void;
 };
@@ -33,6 +33,9 @@ const NODE_GAP_X = 170;
 const LEVEL_GAP_Y = 140;
 const R_MIN = 9;
 const R_MAX = 30;
+// Below this scale the labels cannot be read: big trees open at it, centred on the root, for panning.
+const MIN_FIT_SCALE = 0.75;
+const FALLBACK_WIDTH = 800;
 // Shade runs from warm sand (no leavers) to the signal colour (highest leaver share in the tree).
 const SHADE_LOW = [0xf5, 0xee, 0xdd];
 const SHADE_HIGH = [0xa8, 0x42, 0x1f];
@@ -75,10 +78,20 @@ function layoutTree(root: TreeNode) {
   return {
     positioned,
     nodes,
-    viewBox: { x: minX, y: -R_MAX - 20, width: maxX - minX, height: maxY + R_MAX + 20 },
+    bounds: { x: minX, y: -R_MAX - 24, width: maxX - minX, height: maxY + R_MAX + 24 },
     rootN,
     maxShare,
   };
+}
+
+type Bounds = { x: number; y: number; width: number; height: number };
+
+/** The opening view: the whole tree when it fits readably, else the top of it centred on the root. */
+export function fitView(bounds: Bounds, width: number): ZoomTransform {
+  const whole = width / bounds.width;
+  const k = Math.min(1, Math.max(MIN_FIT_SCALE, whole));
+  const centreX = whole >= MIN_FIT_SCALE ? bounds.x + bounds.width / 2 : 0;
+  return zoomIdentity.translate(width / 2 - k * centreX, -k * bounds.y).scale(k);
 }
 
 function radius(node: TreeNode, rootN: number): number {
@@ -109,9 +122,22 @@ export function TreeDiagram({
   const svgRef = useRef<SVGSVGElement>(null);
   const zoomRef = useRef<ZoomBehavior<SVGSVGElement, unknown> | null>(null);
   const [transform, setTransform] = useState<ZoomTransform>(zoomIdentity);
+  const [width, setWidth] = useState(FALLBACK_WIDTH);
   const [selectedId, setSelectedId] = useState<string | null>(null);
 
-  const { positioned, nodes, viewBox, rootN, maxShare } = useMemo(() => layoutTree(tree), [tree]);
+  const { positioned, nodes, bounds, rootN, maxShare } = useMemo(() => layoutTree(tree), [tree]);
+  const fit = useMemo(() => fitView(bounds, width), [bounds, width]);
+  const svgHeight = Math.min(height, Math.max(200, Math.ceil(fit.k * bounds.height)));
+
+  useEffect(() => {
+    const svg = svgRef.current;
+    if (!svg || typeof ResizeObserver === 'undefined') return;
+    const observer = new ResizeObserver(() => {
+      if (svg.clientWidth > 0) setWidth(svg.clientWidth);
+    });
+    observer.observe(svg);
+    return () => observer.disconnect();
+  }, []);
   const selected = nodes.find((n) => n.data.id === selectedId)?.data;
 
   // A new tree starts unselected.
@@ -124,8 +150,8 @@ export function TreeDiagram({
     const behavior = zoom<SVGSVGElement, unknown>()
       .scaleExtent([0.25, 4])
       .extent([
-        [viewBox.x, viewBox.y],
-        [viewBox.x + viewBox.width, viewBox.y + viewBox.height],
+        [0, 0],
+        [width, svgHeight],
       ])
       // The wheel scrolls the page unless Ctrl/⌘ is held (also what trackpad pinches send).
       .filter((event: Event) =>
@@ -135,11 +161,12 @@ export function TreeDiagram({
       )
       .on('zoom', (event: { transform: ZoomTransform }) => setTransform(event.transform));
     select(svg).call(behavior);
+    behavior.transform(select(svg), fit);
     zoomRef.current = behavior;
     return () => {
       select(svg).on('.zoom', null);
     };
-  }, [viewBox]);
+  }, [fit, width, svgHeight]);
 
   function choose(d: Datum) {
     const next = selectedId === d.id ? null : d.id;
@@ -163,7 +190,7 @@ export function TreeDiagram({
 
   function resetZoom() {
     const svg = svgRef.current;
-    if (svg && zoomRef.current) zoomRef.current.transform(select(svg), zoomIdentity);
+    if (svg && zoomRef.current) zoomRef.current.transform(select(svg), fit);
   }
 
   const links = positioned.links();
@@ -207,10 +234,8 @@ export function TreeDiagram({
         ref={svgRef}
         role="group"
         aria-label={label}
-        viewBox={`${viewBox.x} ${viewBox.y} ${viewBox.width} ${viewBox.height}`}
-        preserveAspectRatio="xMidYMin meet"
         width="100%"
-        height={height}
+        height={svgHeight}
         className="block cursor-grab touch-none select-none font-sans active:cursor-grabbing"
       >
         <defs>
