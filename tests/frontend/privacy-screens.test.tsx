@@ -1,10 +1,14 @@
 import { act, cleanup, fireEvent, render, screen, within } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
+import { WITHHELD_TEXT } from '../../frontend/src/components/withheld';
 import { auditExportHref } from '../../frontend/src/features/audit/api/export-audit';
 import { AuditTable } from '../../frontend/src/features/audit/components/audit-table';
+import { FairnessTable } from '../../frontend/src/features/fairness/components/fairness-table';
 import { PolicyForm } from '../../frontend/src/features/policy/components/policy-form';
+import { ProxyReportTable } from '../../frontend/src/features/review/components/proxy-report-table';
 import { ApiError } from '../../frontend/src/lib/api-client';
 import type { Policy } from '../../shared/policy';
+import type { FairnessReportView, ProxyRowView } from '../../shared/privacy';
 
 afterEach(cleanup);
 
@@ -130,5 +134,110 @@ describe('the audit trail', () => {
     expect(auditExportHref({ actor: 'privacy', action: 'policy.', page: 3, pageSize: 50 })).toBe(
       '/api/audit/export.csv?actor=privacy&action=policy.',
     );
+  });
+});
+
+const proxyRow = (feature: string, v: number, flagged: boolean): ProxyRowView => ({
+  feature,
+  blockedField: 'Date of Birth',
+  cramersV: v,
+  normalisedMutualInformation: v / 2,
+  chiSquare: 100,
+  dof: 16,
+  n: 2400,
+  featureBins: feature === 'Depot' ? null : 5,
+  blockedFieldBins: 5,
+  strength: v >= 0.5 ? 'large' : 'small',
+  flagged,
+  decision: null,
+});
+
+describe('the proxy report', () => {
+  it('lists the strongest pair first, flags it and lets the privacy officer decide', async () => {
+    const onDecide = vi.fn();
+    render(
+      <ProxyReportTable
+        rows={[proxyRow('Depot', 0.12, false), proxyRow('Years Since Qualification', 0.81, true)]}
+        threshold={0.5}
+        bins={5}
+        onDecide={onDecide}
+      />,
+    );
+    const rows = screen.getAllByRole('row').slice(1);
+    expect(rows[0]!.textContent).toContain('Years Since Qualification');
+    expect(rows[0]!.textContent).toContain('Possible proxy: large');
+    expect(
+      screen.getByText('Years Since Qualification in 5 quantile bins; Date of Birth in 5 quantile bins'),
+    ).toBeTruthy();
+    expect(screen.getByRole('img', { name: "Cramér's V 0.81, at or above the threshold" })).toBeTruthy();
+    expect(screen.queryByRole('button', { name: 'Block Depot' })).toBeNull();
+    await press('Block Years Since Qualification');
+    expect(onDecide).toHaveBeenCalledWith(
+      expect.objectContaining({ feature: 'Years Since Qualification' }),
+      'block',
+    );
+  });
+});
+
+describe('the fairness screen', () => {
+  const report: FairnessReportView = {
+    field: 'Disability',
+    rule: 'four-fifths rule (29 CFR 1607.4(D)), applied to retention rates (1 − attrition rate)',
+    bins: null,
+    k: 5,
+    groups: [
+      {
+        group: 'No',
+        headcount: 40,
+        leavers: 8,
+        attritionRate: 0.2,
+        meanPredictedRisk: 0.21,
+        retentionRate: 0.8,
+        retentionRatio: 1,
+        reference: true,
+        flagged: false,
+        withheld: false,
+      },
+      {
+        group: 'Yes',
+        headcount: 30,
+        leavers: 15,
+        attritionRate: 0.5,
+        meanPredictedRisk: 0.4,
+        retentionRate: 0.5,
+        retentionRatio: 0.625,
+        reference: false,
+        flagged: true,
+        withheld: false,
+      },
+      {
+        group: 'Declined',
+        headcount: { withheld: true },
+        leavers: { withheld: true },
+        attritionRate: { withheld: true },
+        meanPredictedRisk: { withheld: true },
+        retentionRate: { withheld: true },
+        retentionRatio: { withheld: true },
+        reference: false,
+        flagged: false,
+        withheld: true,
+      },
+    ],
+  };
+
+  it('hatches a withheld group with the words and shows no figure for it', () => {
+    const { container } = render(<FairnessTable report={report} />);
+    const declined = screen.getAllByRole('row').find((row) => row.textContent?.startsWith('Declined'))!;
+    expect(within(declined).getAllByText(WITHHELD_TEXT)).toHaveLength(5);
+    expect(declined.textContent?.replaceAll(WITHHELD_TEXT, '')).not.toMatch(/\d/);
+    expect(container.querySelectorAll('.hatch-withheld').length).toBe(5);
+  });
+
+  it('names the rule and marks the group under four fifths', () => {
+    render(<FairnessTable report={report} />);
+    expect(screen.getByText(/29 CFR 1607.4\(D\)/)).toBeTruthy();
+    const yes = screen.getAllByRole('row').find((row) => row.textContent?.startsWith('Yes'))!;
+    expect(yes.textContent).toContain('0.63');
+    expect(yes.textContent).toContain('adverse impact indicated');
   });
 });
