@@ -12,6 +12,14 @@ export const paths = {
     path: '/datasets/:id',
     href: (id: string) => `/datasets/${encodeURIComponent(id)}`,
   },
+  privacyPolicy: {
+    path: '/privacy-policy',
+    href: () => '/privacy-policy',
+  },
+  auditTrail: {
+    path: '/audit',
+    href: () => '/audit',
+  },
   signIn: {
     path: '/auth/login',
     href: (returnTo: string) => `/auth/login?returnTo=${encodeURIComponent(returnTo)}`,
