@@ -6,6 +6,7 @@ import type {
 } from '../../../../shared/datasets';
 import type { Config } from '../../lib/config';
 import { notFound } from '../../lib/errors';
+import { logger } from '../../lib/logger';
 import type { SessionUser } from '../auth/session-types';
 import {
   deleteDataset as deleteStoredDataset,
@@ -49,10 +50,13 @@ export async function uploadDataset(input: {
   config: Pick<Config, 'employeeIdSecret'>;
   limits?: Partial<IntakeLimits>;
 }): Promise<DatasetDetail> {
+  const started = performance.now();
   const parsed = await parseUpload(input.bytes, { sheet: input.sheet || undefined, limits: input.limits });
+  const parsedAt = performance.now();
   const prepared = prepareForStorage(parsed, input.config.employeeIdSecret);
+  const preparedAt = performance.now();
   const actor = actorOf(input.user);
-  return insertDataset(
+  const dataset = await insertDataset(
     {
       name: datasetNameFrom(input.fileName, input.name),
       format: parsed.format,
@@ -75,6 +79,20 @@ export async function uploadDataset(input: {
       },
     }),
   );
+  logger.info(
+    {
+      datasetId: dataset.id,
+      rows: dataset.rowCount,
+      format: parsed.format,
+      ms: {
+        parse: Math.round(parsedAt - started),
+        prepare: Math.round(preparedAt - parsedAt),
+        store: Math.round(performance.now() - preparedAt),
+      },
+    },
+    'dataset stored',
+  );
+  return dataset;
 }
 
 export const listDatasets = (): Promise<DatasetSummary[]> => listStoredDatasets();
