@@ -19,8 +19,7 @@ import {
 import { deriveOutcome, type MappingProblem } from './derive-outcome';
 import type { IntakeLimits } from './parsing/build-table';
 import { IntakeError } from './parsing/intake-error';
-import { parseUpload } from './parsing/parse-upload';
-import { prepareForStorage } from './prepare-storage';
+import { readUpload } from './run-intake';
 
 type Actor = { id: string | null; email: string };
 
@@ -51,9 +50,13 @@ export async function uploadDataset(input: {
   limits?: Partial<IntakeLimits>;
 }): Promise<DatasetDetail> {
   const started = performance.now();
-  const parsed = await parseUpload(input.bytes, { sheet: input.sheet || undefined, limits: input.limits });
-  const parsedAt = performance.now();
-  const prepared = prepareForStorage(parsed, input.config.employeeIdSecret);
+  const parsed = await readUpload({
+    bytes: input.bytes,
+    sheet: input.sheet || undefined,
+    limits: input.limits,
+    secret: input.config.employeeIdSecret,
+  });
+  const { prepared } = parsed;
   const preparedAt = performance.now();
   const actor = actorOf(input.user);
   const dataset = await insertDataset(
@@ -74,7 +77,7 @@ export async function uploadDataset(input: {
       details: {
         format: parsed.format,
         rows: prepared.rowNumbers.length,
-        columns: parsed.profile.length,
+        columns: parsed.columnCount,
         dropped: prepared.dropped.map((d) => d.name),
       },
     }),
@@ -85,8 +88,7 @@ export async function uploadDataset(input: {
       rows: dataset.rowCount,
       format: parsed.format,
       ms: {
-        parse: Math.round(parsedAt - started),
-        prepare: Math.round(preparedAt - parsedAt),
+        read: Math.round(preparedAt - started),
         store: Math.round(performance.now() - preparedAt),
       },
     },
