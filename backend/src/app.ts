@@ -17,6 +17,7 @@ import { datasetsRouter } from './modules/datasets/datasets.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
 import { policyRouter } from './modules/policy/policy.routes';
+import { reviewRouter } from './modules/review/review.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
 
@@ -125,6 +126,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   // Feature routers, one line each.
   app.use(policyRouter());
   app.use(auditRouter());
+  app.use(reviewRouter());
   app.use(datasetsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 

@@ -4,10 +4,12 @@ import { paths } from '../config/paths';
 import { AppRootRoute } from './routes/app-root';
 import { AuditTrailRoute } from './routes/audit-trail';
 import { DatasetRoute } from './routes/dataset';
+import { DatasetReviewRoute } from './routes/dataset-review';
 import { DatasetsRoute } from './routes/datasets';
 import { HomeRoute } from './routes/home';
 import { NotFoundRoute } from './routes/not-found';
 import { PrivacyPolicyRoute } from './routes/privacy-policy';
+import { ReviewQueueRoute } from './routes/review-queue';
 
 /** Feature screens add their route here, as children of the shell. */
 export const routes: RouteObject[] = [
@@ -20,6 +22,8 @@ export const routes: RouteObject[] = [
       { path: paths.dataset.path, element: <DatasetRoute /> },
       { path: paths.privacyPolicy.path, element: <PrivacyPolicyRoute /> },
       { path: paths.auditTrail.path, element: <AuditTrailRoute /> },
+      { path: paths.reviewQueue.path, element: <ReviewQueueRoute /> },
+      { path: paths.datasetReview.path, element: <DatasetReviewRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

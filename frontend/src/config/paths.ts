@@ -16,6 +16,14 @@ export const paths = {
     path: '/privacy-policy',
     href: () => '/privacy-policy',
   },
+  reviewQueue: {
+    path: '/review',
+    href: () => '/review',
+  },
+  datasetReview: {
+    path: '/review/datasets/:id',
+    href: (id: string) => `/review/datasets/${encodeURIComponent(id)}`,
+  },
   auditTrail: {
     path: '/audit',
     href: () => '/audit',
