@@ -15,6 +15,7 @@ import { auditRouter } from './modules/audit/audit.routes';
 import { authRouter } from './modules/auth/auth.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
+import { modelsRouter } from './modules/models/models.routes';
 import { policyRouter } from './modules/policy/policy.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
@@ -124,6 +125,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   // Feature routers, one line each.
   app.use(policyRouter());
   app.use(auditRouter());
+  app.use(modelsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);
