@@ -126,6 +126,8 @@ export type ModelDriver = {
   importance: number;
   /** which values raise the leaver share, in words */
   direction: string;
+  /** the same in one word: higher values raise, lower values raise, or it depends (categories, mixed) */
+  trend: 'raises' | 'lowers' | 'mixed';
   suggestedAction: string;
 };
 
@@ -167,6 +169,14 @@ export type ModelRunDetail = ModelRunSummary & {
   excludedFeatures: ExcludedFeature[];
   dataWindow: { start: string; end: string } | null;
   result: ModelResultView | null;
+};
+
+/** `GET /api/models/feature-options?datasetId=`: the run form's feature list under the current policy. */
+export type FeatureOptions = {
+  datasetId: string;
+  k: number;
+  policyVersion: number;
+  features: { name: string; kind: 'numeric' | 'categorical'; blocked: string | null }[];
 };
 
 /** 202 body of `POST /api/models`. */

@@ -1,6 +1,7 @@
 import type { EntityManager } from 'typeorm';
 import type {
   ExcludedFeature,
+  ModelDriver,
   ModelRunPhase,
   ModelRunSettings,
   ModelRunStatus,
@@ -248,7 +249,7 @@ export type ModelRunForPublishing = {
   features: string[];
   /** the full pruned tree, not withheld: for computing only, never for showing as it is */
   tree: TreeNode | null;
-  drivers: { feature: string; importance: number; direction: string; suggestedAction: string }[];
+  drivers: ModelDriver[];
   /** every leaf, not withheld: for computing only */
   segments: Segment[];
 };

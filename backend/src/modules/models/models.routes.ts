@@ -12,6 +12,7 @@ import { currentUser, requireRole } from '../auth/auth.middleware';
 import {
   cancelRun,
   createModelRun,
+  featureOptions,
   getRun,
   listRuns,
   requestPublication,
@@ -46,6 +47,12 @@ export function modelsRouter(config: Config): Router {
       return;
     }
     res.json(await listRuns({ datasetId }));
+  });
+
+  router.get('/api/models/feature-options', requireRole('analyst'), async (req, res) => {
+    const parsed = idSchema.safeParse(req.query.datasetId);
+    if (!parsed.success) throw notFound('The dataset');
+    res.json(await featureOptions(parsed.data));
   });
 
   router.get('/api/models/:id', readers, async (req, res) => {

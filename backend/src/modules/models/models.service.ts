@@ -1,4 +1,5 @@
 import type {
+  FeatureOptions,
   ModelRunCreated,
   ModelRunDetail,
   ModelRunRequest,
@@ -12,7 +13,7 @@ import { AppError, conflict, notFound } from '../../lib/errors';
 import type { SessionUser } from '../auth/session-types';
 import { currentPolicy, onPolicyChange } from '../policy/policy.service';
 import { findDatasetForModelling, loadTrainingInput } from './dataset-input';
-import { selectFeatures } from './feature-rules';
+import { blockedReason, selectFeatures } from './feature-rules';
 import {
   findModelRun,
   insertModelRun,
@@ -152,6 +153,23 @@ export async function createModelRun(user: SessionUser, body: ModelRunRequest): 
     notices,
     features: allowed,
     excludedFeatures: excluded,
+  };
+}
+
+export async function featureOptions(datasetId: string): Promise<FeatureOptions> {
+  const dataset = await findDatasetForModelling(datasetId);
+  if (!dataset) throw notFound('The dataset');
+  const policy = await currentPolicy();
+  const input = await loadTrainingInput(datasetId);
+  return {
+    datasetId,
+    k: policy.k,
+    policyVersion: policy.version,
+    features: input.features.map((f) => ({
+      name: f.name,
+      kind: f.kind,
+      blocked: blockedReason(f, policy.blockedFields, dataset.profile),
+    })),
   };
 }
 

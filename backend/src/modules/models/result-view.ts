@@ -49,9 +49,13 @@ function splitsOn(tree: TreeNode, feature: string): Extract<TreeNode, { split: u
  * each split weighs by its employees times the gap between its two sides. Shares are quoted only
  * for sides of at least k employees.
  */
-export function describeDirection(tree: TreeNode, feature: string, k: number): string {
+export function describeDirection(
+  tree: TreeNode,
+  feature: string,
+  k: number,
+): { direction: string; trend: ModelDriver['trend'] } {
   const splits = splitsOn(tree, feature);
-  if (splits.length === 0) return 'Not used by the pruned tree.';
+  if (splits.length === 0) return { direction: 'Not used by the pruned tree.', trend: 'mixed' };
   let up = 0;
   let down = 0;
   let heaviest = splits[0];
@@ -78,21 +82,28 @@ export function describeDirection(tree: TreeNode, feature: string, k: number): s
   if (split.kind === 'numeric') {
     const total = up + down;
     if (total > 0 && Math.min(up, down) > 0.2 * total) {
-      return `Mixed: higher values raise the leaver share in some segments and lower it in others${quote}.`;
+      return {
+        direction: `Mixed: higher values raise the leaver share in some segments and lower it in others${quote}.`,
+        trend: 'mixed',
+      };
     }
     const threshold = Number((split.threshold ?? Number.NaN).toPrecision(3));
     return up >= down
-      ? `Higher values raise the leaver share: above ${threshold}${quote}.`
-      : `Lower values raise the leaver share: up to ${threshold}${quote}.`;
+      ? { direction: `Higher values raise the leaver share: above ${threshold}${quote}.`, trend: 'raises' }
+      : { direction: `Lower values raise the leaver share: up to ${threshold}${quote}.`, trend: 'lowers' };
   }
   const categories = split.categories ?? [];
   const list =
     categories.length <= 1
       ? (categories[0] ?? '(none)')
       : `${categories.slice(0, -1).join(', ')} or ${categories.at(-1)}`;
-  return share(left) >= share(right)
-    ? `${feature} ${list} raises the leaver share${quote}.`
-    : `${feature} other than ${list} raises the leaver share${quote}.`;
+  return {
+    direction:
+      share(left) >= share(right)
+        ? `${feature} ${list} raises the leaver share${quote}.`
+        : `${feature} other than ${list} raises the leaver share${quote}.`,
+    trend: 'mixed',
+  };
 }
 
 /** Drivers: features by importance, each with its direction and the analyst's suggested action. */
@@ -106,7 +117,7 @@ export function buildDrivers(
     .map((item) => ({
       feature: item.feature,
       importance: item.importance,
-      direction: describeDirection(result.tree, item.feature, k),
+      ...describeDirection(result.tree, item.feature, k),
       suggestedAction: actions[item.feature] ?? '',
     }));
 }
