@@ -1,4 +1,4 @@
-import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import type {
   ExcludedFeature,
   ModelRunPhase,
@@ -6,6 +6,7 @@ import type {
   ModelRunStatus,
   PublicationState,
 } from '../../../shared/models';
+import { Dataset } from './dataset.entity';
 
 /**
  * A model run: the settings it was trained with (with the seed, enough to train it again from the
@@ -21,6 +22,11 @@ export class ModelRun {
 
   @Column({ name: 'dataset_id', type: 'uuid' })
   datasetId: string;
+
+  /** deleting a dataset deletes the runs trained on it */
+  @ManyToOne(() => Dataset, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'dataset_id' })
+  dataset?: Dataset;
 
   @Column({ name: 'dataset_name', type: 'varchar', length: 200, nullable: true })
   datasetName: string | null;

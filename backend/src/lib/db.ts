@@ -8,7 +8,7 @@ import { User } from '../entities/user.entity';
 import { Foundation1796150136015 } from '../migrations/1796150136015-foundation';
 import { PrivacyPolicy1796150959571 } from '../migrations/1796150959571-privacy-policy';
 import { Datasets1796151046358 } from '../migrations/1796151046358-datasets';
-import { ModelRuns1796151966126 } from '../migrations/1796151966126-model-runs';
+import { ModelRuns1796152505403 } from '../migrations/1796152505403-model-runs';
 
 /** Every entity and migration, listed (not globbed) so they load the same under tsx and vitest. */
 export const entities = [User, AuditEvent, PolicyVersion, Dataset, DatasetColumn, ModelRun];
@@ -16,7 +16,7 @@ export const migrations = [
   Foundation1796150136015,
   PrivacyPolicy1796150959571,
   Datasets1796151046358,
-  ModelRuns1796151966126,
+  ModelRuns1796152505403,
 ];
 
 export function createDataSource(url: string): DataSource {

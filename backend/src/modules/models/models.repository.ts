@@ -147,9 +147,9 @@ export async function finishModelRun(
     | { status: 'cancelled' },
 ): Promise<boolean> {
   const rows: unknown[] = await db().query(
-    `UPDATE model_runs SET status = $2, result = $3, error = $4, finished_at = now(),
-       progress = CASE WHEN $2 = 'done' THEN 1 ELSE progress END,
-       phase = CASE WHEN $2 = 'done' THEN NULL ELSE phase END
+    `UPDATE model_runs SET status = $2::varchar, result = $3::jsonb, error = $4::text, finished_at = now(),
+       progress = CASE WHEN $2::varchar = 'done' THEN 1 ELSE progress END,
+       phase = CASE WHEN $2::varchar = 'done' THEN NULL ELSE phase END
      WHERE id = $1 AND status = 'running' RETURNING id`,
     [
       id,

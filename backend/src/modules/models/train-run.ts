@@ -71,7 +71,12 @@ export function failureMessage(error: unknown): string {
  */
 export async function trainModelRun(runId: string, workerName: string): Promise<void> {
   const run = await claimModelRun(runId, workerName);
-  if (!run) return;
+  if (run) await trainClaimedRun(run);
+}
+
+/** Trains a run this worker has claimed (status running). */
+export async function trainClaimedRun(run: ModelRunRecord): Promise<void> {
+  const runId = run.id;
   const abort = new AbortController();
   let lastWrite = 0;
   let lastPhase: ModelRunPhase = 'loading';
@@ -97,6 +102,7 @@ export async function trainModelRun(runId: string, workerName: string): Promise<
   }, CANCEL_CHECK_EVERY_MS);
   try {
     const input = await loadTrainingInput(run.datasetId);
+    if (await isCancelRequested(runId)) abort.abort();
     if (abort.signal.aborted) throw new Error('Training was cancelled');
     const table = trainingTable(input, run.features);
     onProgress({ phase: 'loading', progress: 0.02 });

@@ -115,8 +115,13 @@ export function RunMetrics({ result, k }: RunMetricsProps) {
               ).map(([label, a, b]) => (
                 <tr key={label}>
                   <th className="pr-3 text-left font-medium">{label}</th>
-                  {[a, b].map((cell, i) => (
-                    <td key={i} className="px-3 py-1 tabular-nums">
+                  {(
+                    [
+                      ['flagged', a],
+                      ['not-flagged', b],
+                    ] as const
+                  ).map(([column, cell]) => (
+                    <td key={column} className="px-3 py-1 tabular-nums">
                       {typeof cell === 'number' ? cell.toLocaleString('en-GB') : <WithheldBox />}
                     </td>
                   ))}

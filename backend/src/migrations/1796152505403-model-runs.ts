@@ -1,7 +1,7 @@
 import type { MigrationInterface, QueryRunner } from 'typeorm';
 
-export class ModelRuns1796151966126 implements MigrationInterface {
-  name = 'ModelRuns1796151966126';
+export class ModelRuns1796152505403 implements MigrationInterface {
+  name = 'ModelRuns1796152505403';
 
   public async up(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`
@@ -43,9 +43,16 @@ export class ModelRuns1796151966126 implements MigrationInterface {
     await queryRunner.query(`
             CREATE INDEX "IDX_97ab5f00f97e52c073c5a59232" ON "model_runs" ("dataset_id")
         `);
+    await queryRunner.query(`
+            ALTER TABLE "model_runs"
+            ADD CONSTRAINT "FK_97ab5f00f97e52c073c5a592320" FOREIGN KEY ("dataset_id") REFERENCES "datasets"("id") ON DELETE CASCADE ON UPDATE NO ACTION
+        `);
   }
 
   public async down(queryRunner: QueryRunner): Promise<void> {
+    await queryRunner.query(`
+            ALTER TABLE "model_runs" DROP CONSTRAINT "FK_97ab5f00f97e52c073c5a592320"
+        `);
     await queryRunner.query(`
             DROP INDEX "public"."IDX_97ab5f00f97e52c073c5a59232"
         `);
