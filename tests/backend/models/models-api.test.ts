@@ -245,3 +245,63 @@ describe('a run that cannot learn', () => {
     expect(run.result).toBeNull();
   });
 });
+
+describe('publication requests', () => {
+  let runId: string;
+
+  async function mailTo(address: string, subject: RegExp) {
+    for (let i = 0; i < 100; i++) {
+      const box = await analyst.get('/dev/mailbox');
+      const found = (box.body as { to: string | string[]; subject: string; text: string }[]).find(
+        (m) => String(m.to).includes(address) && subject.test(m.subject),
+      );
+      if (found) return found;
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    throw new Error(`no mail to ${address} about ${subject}`);
+  }
+
+  beforeAll(async () => {
+    const res = await analyst.post('/api/models').send({ datasetId, folds: 3, pruning: 'none', maxDepth: 3 });
+    runId = res.body.id;
+    await waitForRun(analyst, runId);
+  });
+
+  it('asks the privacy officers by e-mail and records the request', async () => {
+    const res = await analyst
+      .post(`/api/models/${runId}/publication-request`)
+      .send({ comment: 'Ready for review' });
+    expect(res.status).toBe(200);
+    expect(res.body.publicationState).toBe('requested');
+    const mail = await mailTo(ACCOUNTS.privacy, /asks for publication/);
+    expect(mail.text).toContain(`/models/${runId}`);
+    const again = await analyst.post(`/api/models/${runId}/publication-request`).send({});
+    expect(again.status).toBe(409);
+    const audit = await coppice.sql('SELECT action FROM audit_events WHERE object_id = $1', [runId]);
+    expect(audit.map((a) => a.action)).toContain('model.publication_request');
+  });
+
+  it('lets only a privacy officer send it back, with a comment the analyst reads', async () => {
+    expect((await analyst.post(`/api/models/${runId}/send-back`).send({ comment: 'No' })).status).toBe(403);
+    expect((await privacy.post(`/api/models/${runId}/send-back`).send({})).status).toBe(400);
+    const res = await privacy
+      .post(`/api/models/${runId}/send-back`)
+      .send({ comment: 'Reword the action on overtime' });
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({
+      publicationState: 'sent_back',
+      publicationComment: 'Reword the action on overtime',
+    });
+    await mailTo(ACCOUNTS.analyst, /sent back/);
+  });
+
+  it('gives the briefs engineer the run as plain data, tree unwithheld', async () => {
+    const { getModelRunForPublishing } = await import(
+      '../../../backend/src/modules/models/models.repository'
+    );
+    const data = await getModelRunForPublishing(runId);
+    expect(data).toMatchObject({ id: runId, datasetId, status: 'done', publicationState: 'sent_back' });
+    expect(data?.tree && 'n' in data.tree ? data.tree.n : 0).toBeGreaterThan(0);
+    expect(await getModelRunForPublishing('00000000-0000-4000-8000-000000000002')).toBeNull();
+  });
+});
