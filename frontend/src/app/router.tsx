@@ -6,6 +6,7 @@ import { AuditTrailRoute } from './routes/audit-trail';
 import { DatasetRoute } from './routes/dataset';
 import { DatasetsRoute } from './routes/datasets';
 import { HomeRoute } from './routes/home';
+import { ModelsRoute } from './routes/models';
 import { NotFoundRoute } from './routes/not-found';
 import { PrivacyPolicyRoute } from './routes/privacy-policy';
 
@@ -18,6 +19,10 @@ export const routes: RouteObject[] = [
       { index: true, element: <HomeRoute /> },
       { path: paths.datasets.path, element: <DatasetsRoute /> },
       { path: paths.dataset.path, element: <DatasetRoute /> },
+      { path: paths.models.path, element: <ModelsRoute /> },
+      { path: paths.modelCompare.path, lazy: () => import('./routes/model-compare') },
+      { path: paths.modelRun.path, lazy: () => import('./routes/model-run') },
+      { path: paths.modelCard.path, lazy: () => import('./routes/model-card') },
       { path: paths.privacyPolicy.path, element: <PrivacyPolicyRoute /> },
       { path: paths.auditTrail.path, element: <AuditTrailRoute /> },
       { path: '*', element: <NotFoundRoute /> },
