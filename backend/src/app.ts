@@ -16,6 +16,7 @@ import { authRouter } from './modules/auth/auth.routes';
 import { datasetsRouter } from './modules/datasets/datasets.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
+import { modelsRouter } from './modules/models/models.routes';
 import { policyRouter } from './modules/policy/policy.routes';
 import { reviewRouter } from './modules/review/review.routes';
 
@@ -128,6 +129,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   app.use(auditRouter());
   app.use(reviewRouter());
   app.use(datasetsRouter(config));
+  app.use(modelsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);
