@@ -16,6 +16,7 @@ import { authRouter } from './modules/auth/auth.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
 import { policyRouter } from './modules/policy/policy.routes';
+import { teamsRouter } from './modules/teams/teams.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
 
@@ -124,6 +125,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   // Feature routers, one line each.
   app.use(policyRouter());
   app.use(auditRouter());
+  app.use(teamsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);

@@ -122,7 +122,8 @@ function majority(values: readonly (string | null)[], rows: readonly number[], l
   return best;
 }
 
-function treeFeatures(tree: TreeNode): string[] {
+/** The columns a tree splits on. */
+export function treeFeatures(tree: TreeNode): string[] {
   const found = new Set<string>();
   const walk = (node: TreeNode) => {
     if (!isInternal(node)) return;

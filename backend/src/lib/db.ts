@@ -1,13 +1,16 @@
 import { DataSource } from 'typeorm';
 import { AuditEvent } from '../entities/audit-event.entity';
 import { PolicyVersion } from '../entities/policy-version.entity';
+import { Publication } from '../entities/publication.entity';
+import { TeamBriefRecord } from '../entities/team-brief.entity';
 import { User } from '../entities/user.entity';
 import { Foundation1796150136015 } from '../migrations/1796150136015-foundation';
 import { PrivacyPolicy1796150959571 } from '../migrations/1796150959571-privacy-policy';
+import { TeamBriefs1796151938276 } from '../migrations/1796151938276-team-briefs';
 
 /** Every entity and migration, listed (not globbed) so they load the same under tsx and vitest. */
-export const entities = [User, AuditEvent, PolicyVersion];
-export const migrations = [Foundation1796150136015, PrivacyPolicy1796150959571];
+export const entities = [User, AuditEvent, PolicyVersion, Publication, TeamBriefRecord];
+export const migrations = [Foundation1796150136015, PrivacyPolicy1796150959571, TeamBriefs1796151938276];
 
 export function createDataSource(url: string): DataSource {
   return new DataSource({

@@ -14,6 +14,11 @@ export const DEMO_FEATURES = [
   'Role',
 ] as const;
 
+/** The analyst's suggested action for each driver of the demo runs. */
+export function demoAction(feature: string): string {
+  return `Talk with the team about ${feature.toLowerCase()}.`;
+}
+
 export const DEMO_BLOCKED = ['Date of Birth', 'Sex', 'Ethnicity', 'Disability'];
 
 /**
@@ -62,8 +67,7 @@ export function demoBriefInputs(options: { rows?: number; seed?: number } = {}):
       tree,
       drivers: DEMO_FEATURES.map((feature) => ({
         feature,
-        suggestedAction:
-          feature === 'Weekly Overtime Hours' ? 'Review rotas so overtime is shared out.' : null,
+        suggestedAction: demoAction(feature),
       })),
     },
     identifiers: rows.flatMap((row) => [
