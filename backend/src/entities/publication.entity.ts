@@ -1,8 +1,10 @@
-import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
+import { Dataset } from './dataset.entity';
 
 /**
  * One publication of a model run's team briefs. At most one publication per dataset is
- * "published" at a time: a newer one replaces it; a withdrawal deletes its briefs at once.
+ * "published" at a time: a newer one replaces it; a withdrawal (policy change, deletion of the
+ * dataset) deletes its briefs at once.
  */
 @Entity({ name: 'publications' })
 @Index('publications_dataset_status', ['datasetId', 'status'])
@@ -15,6 +17,11 @@ export class Publication {
 
   @Column({ name: 'dataset_id', type: 'uuid' })
   datasetId: string;
+
+  /** deleting the dataset deletes its publications and, with them, every brief */
+  @ManyToOne(() => Dataset, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'dataset_id' })
+  dataset?: Dataset;
 
   /** computing | published | failed | replaced | withdrawn */
   @Column({ type: 'varchar', length: 20 })

@@ -1,16 +1,32 @@
 import { DataSource } from 'typeorm';
 import { AuditEvent } from '../entities/audit-event.entity';
+import { Dataset } from '../entities/dataset.entity';
+import { DatasetColumn } from '../entities/dataset-column.entity';
 import { PolicyVersion } from '../entities/policy-version.entity';
 import { Publication } from '../entities/publication.entity';
 import { TeamBriefRecord } from '../entities/team-brief.entity';
 import { User } from '../entities/user.entity';
 import { Foundation1796150136015 } from '../migrations/1796150136015-foundation';
 import { PrivacyPolicy1796150959571 } from '../migrations/1796150959571-privacy-policy';
-import { TeamBriefs1796151938276 } from '../migrations/1796151938276-team-briefs';
+import { Datasets1796151046358 } from '../migrations/1796151046358-datasets';
+import { TeamBriefs1796152581702 } from '../migrations/1796152581702-team-briefs';
 
 /** Every entity and migration, listed (not globbed) so they load the same under tsx and vitest. */
-export const entities = [User, AuditEvent, PolicyVersion, Publication, TeamBriefRecord];
-export const migrations = [Foundation1796150136015, PrivacyPolicy1796150959571, TeamBriefs1796151938276];
+export const entities = [
+  User,
+  AuditEvent,
+  PolicyVersion,
+  Dataset,
+  DatasetColumn,
+  Publication,
+  TeamBriefRecord,
+];
+export const migrations = [
+  Foundation1796150136015,
+  PrivacyPolicy1796150959571,
+  Datasets1796151046358,
+  TeamBriefs1796152581702,
+];
 
 export function createDataSource(url: string): DataSource {
   return new DataSource({

@@ -7,7 +7,7 @@ import { DEMO_BLOCKED, demoAction } from './demo-inputs';
 import { useDemoRuns } from './demo-sources';
 
 let coppice: TestCoppice;
-let demo: ReturnType<typeof useDemoRuns>;
+let demo: Awaited<ReturnType<typeof useDemoRuns>>;
 let privacy: request.Agent;
 let analyst: request.Agent;
 let north: request.Agent;
@@ -31,9 +31,9 @@ let firstPublication: PublicationResponse;
 
 beforeAll(async () => {
   coppice = await startTestCoppice();
-  demo = useDemoRuns();
   privacy = await coppice.signIn(ACCOUNTS.privacy);
   analyst = await coppice.signIn(ACCOUNTS.analyst);
+  demo = await useDemoRuns(analyst);
   north = await coppice.signIn(ACCOUNTS.managerNorth);
   south = await coppice.signIn(ACCOUNTS.managerSouth);
   firstRun = demo.requestedRun();
@@ -49,7 +49,7 @@ afterAll(async () => {
 
 describe('POST /api/models/:id/publish', () => {
   it('computes a brief for every team of the dataset and tells the model run it is published', async () => {
-    const teams = new Set(demo.inputs.columns.teams.filter(Boolean));
+    const teams = new Set(demo.columns.teams.filter(Boolean));
     expect(firstPublication.teamCount).toBe(teams.size);
     const stored = await coppice.sql<{ n: string }>(
       'SELECT count(*) AS n FROM team_briefs WHERE publication_id = $1',
@@ -113,7 +113,7 @@ describe('GET /api/teams/:id/brief', () => {
     const brief = res.body as TeamBrief;
     expect(brief).toMatchObject({ withheld: false, team: { id: team.id, name: 'Alderbrook Crew 1' }, k: 5 });
     expect(brief.figures.team.headcount).toBe(team.headcount);
-    expect(brief.figures.organisation.headcount).toBe(demo.inputs.columns.labels.length);
+    expect(brief.figures.organisation.headcount).toBe(demo.columns.labels.length);
     expect(brief.window).toEqual({ start: '2025-10-01', end: '2026-09-30' });
     expect(brief.drivers.length).toBeGreaterThan(0);
     for (const driver of brief.drivers) {
@@ -202,8 +202,8 @@ describe('what managers receive', () => {
       }
     }
     const all = bodies.join('\n');
-    for (const identifier of demo.inputs.identifiers) expect(all).not.toContain(identifier);
-    for (const field of DEMO_BLOCKED) expect(all).not.toContain(field);
+    for (const identifier of demo.identifiers) expect(all).not.toContain(identifier);
+    for (const field of [...DEMO_BLOCKED, ...demo.protectedFields]) expect(all).not.toContain(field);
     expect(all).not.toMatch(/QF\d{6}|employeeId|employeeKey|prediction"|"rows"|fairness/i);
     // Every count shown is 0 or at least k.
     for (const body of bodies.filter((b) => b.startsWith('{'))) {
@@ -223,7 +223,7 @@ describe('what managers receive', () => {
 
   it('sends each manager with a team one short e-mail with a link and no figures', async () => {
     let mailbox: { to: string[]; subject: string; text: string }[] = [];
-    const managers = new Set(demo.inputs.columns.managerEmails!.map((e) => e!.toLowerCase()));
+    const managers = new Set(demo.columns.managerEmails!.map((e) => e!.toLowerCase()));
     const briefMails = () => mailbox.filter((m) => m.subject === 'Team briefs are ready in Coppice');
     for (let i = 0; i < 200; i++) {
       mailbox = (await request(coppice.app).get('/dev/mailbox')).body;
@@ -297,5 +297,23 @@ describe('replacing and withdrawing', () => {
     expect(publication!.status).toBe('withdrawn');
     expect(publication!.withdrawnReason).toContain(used[0]);
     expect((await north.get('/api/teams')).body).toEqual([]);
+  });
+
+  it('refuses to publish a run that splits on a blocked field, and removes every brief when the dataset is deleted', async () => {
+    const blockedRun = demo.requestedRun();
+    const refused = await privacy.post(`/api/models/${blockedRun}/publish`).send({});
+    expect(refused.status).toBe(409);
+    expect(refused.body.error.code).toBe('uses_blocked_fields');
+    await privacy
+      .put('/api/policy')
+      .send({ k: 6, blockedFields: [], proxyThreshold: 0.5, retentionDays: 365, reason: 'Unblock again' });
+    const run = demo.requestedRun();
+    expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
+    await waitForPublication(run);
+    expect(((await north.get('/api/teams')).body as TeamSummary[]).length).toBe(3);
+    expect((await analyst.delete(`/api/datasets/${demo.datasetId}`)).status).toBeLessThan(300);
+    expect((await north.get('/api/teams')).body).toEqual([]);
+    const left = await coppice.sql('SELECT count(*)::int AS n FROM team_briefs');
+    expect(left[0]!.n).toBe(0);
   });
 });
