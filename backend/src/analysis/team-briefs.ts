@@ -243,7 +243,7 @@ export function computeTeamBriefs(
   const unassignedLeavers = unassigned.reduce((s, r) => s + label[r]!, 0);
 
   /** The cells and relations one viewer's suppression works on. */
-  function cellsFor(own: ReadonlySet<number>) {
+  function cellsFor(own: ReadonlySet<number>, detail: ReadonlyMap<number, number>) {
     const cells: CountCell[] = [];
     const relations: SumRelation[] = [];
     const count = new Map<string, number>();
@@ -281,7 +281,7 @@ export function computeTeamBriefs(
         leaverAtoms.push(l);
         const seg = cell(`${t}:seg:${segment}`, stay + left, 10 + stay + left);
         relate(seg, [s, l]);
-        if (stay + left >= k && segmentInfo.has(segment)) visible.push(seg);
+        if (stay + left >= k && segmentInfo.has(segment) && detail.get(team.index)! >= 2) visible.push(seg);
         bandParts.get(bandOfSegment.get(segment) ?? 'medium')!.push(seg);
       }
       const bands = RISK_BANDS.map((band) => {
@@ -292,7 +292,7 @@ export function computeTeamBriefs(
           1000 + parts.length,
         );
         relate(id, parts);
-        visible.push(id);
+        if (detail.get(team.index)! >= 1) visible.push(id);
         return id;
       });
       const n = cell(`${t}:n`, team.rows.length, 1_000_000);
@@ -369,8 +369,20 @@ export function computeTeamBriefs(
   const out: ComputedTeam[] = new Array(teams.length);
   for (const ownList of viewers.values()) {
     const own = new Set(ownList);
-    const { cells, relations, visible, count } = cellsFor(own);
-    const result = suppress({ k, cells, relations, visible });
+    // Full detail first. Where that would cost a team of at least k its headcount (complementary
+    // suppression picks one cell at a time), show that team with less detail: no segments, then
+    // no risk bands, and suppress again.
+    const detail = new Map(ownList.map((t) => [t, 2]));
+    let cellsAndRelations = cellsFor(own, detail);
+    let result = suppress({ k, ...cellsAndRelations });
+    for (let attempt = 0; attempt < 2; attempt++) {
+      const lost = ownList.filter((t) => teams[t]!.rows.length >= k && !isShown(result, `t${t}:n`));
+      if (lost.length === 0) break;
+      for (const t of lost) detail.set(t, Math.max(0, detail.get(t)! - 1));
+      cellsAndRelations = cellsFor(own, detail);
+      result = suppress({ k, ...cellsAndRelations });
+    }
+    const { count } = cellsAndRelations;
     const organisation = figures(result, count, 'org');
     for (const t of ownList) {
       const team = teams[t]!;

@@ -7,6 +7,7 @@ import { fitTree } from '../../../backend/src/modeling/fit';
 import { buildTable, type ColumnInput } from '../../../backend/src/modeling/table';
 import { loadDatasetColumns } from '../../../backend/src/modules/datasets/datasets.repository';
 import { type PublishableRun, setBriefSources } from '../../../backend/src/modules/teams/brief-sources';
+import type { PublicationResponse } from '../../../shared/briefs';
 import { demoAction } from './demo-inputs';
 
 /**
@@ -65,4 +66,14 @@ export async function useDemoRuns(analyst: request.Agent, options: { rows?: numb
       return id;
     },
   };
+}
+
+/** Waits until the run's newest publication is no longer computing, and returns it. */
+export async function waitForPublication(agent: request.Agent, runId: string): Promise<PublicationResponse> {
+  for (let i = 0; i < 600; i++) {
+    const list = (await agent.get(`/api/models/${runId}/publications`)).body as PublicationResponse[];
+    if (list[0] && list[0].status !== 'computing') return list[0];
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error('the briefs were not computed in time');
 }
