@@ -6,8 +6,10 @@ import { AuditTrailRoute } from './routes/audit-trail';
 import { DatasetRoute } from './routes/dataset';
 import { DatasetsRoute } from './routes/datasets';
 import { HomeRoute } from './routes/home';
+import { MyTeamsRoute } from './routes/my-teams';
 import { NotFoundRoute } from './routes/not-found';
 import { PrivacyPolicyRoute } from './routes/privacy-policy';
+import { TeamBriefRoute } from './routes/team-brief';
 
 /** Feature screens add their route here, as children of the shell. */
 export const routes: RouteObject[] = [
@@ -20,6 +22,8 @@ export const routes: RouteObject[] = [
       { path: paths.dataset.path, element: <DatasetRoute /> },
       { path: paths.privacyPolicy.path, element: <PrivacyPolicyRoute /> },
       { path: paths.auditTrail.path, element: <AuditTrailRoute /> },
+      { path: paths.teams.path, element: <MyTeamsRoute /> },
+      { path: paths.teamBrief.path, element: <TeamBriefRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },
