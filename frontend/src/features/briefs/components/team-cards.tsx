@@ -14,7 +14,13 @@ function Rate({ label, value }: { label: string; value: TeamSummary['attritionRa
     <div>
       <dt className="text-xs font-medium uppercase tracking-wide text-slate-500">{label}</dt>
       <dd className="mt-0.5 text-lg font-semibold tabular-nums text-moss-900">
-        {value === undefined ? '–' : isWithheldValue(value) ? <WithheldBox /> : formatPercent(value)}
+        {value === undefined ? (
+          '–'
+        ) : isWithheldValue(value) ? (
+          <WithheldBox className="text-xs" />
+        ) : (
+          formatPercent(value)
+        )}
       </dd>
     </div>
   );
