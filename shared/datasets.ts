@@ -71,7 +71,7 @@ export type ColumnProfile = {
   min?: number | string;
   median?: number | string;
   max?: number | string;
-  /** most frequent values of a category or yes/no column */
+  /** most frequent values of a category or yes/no column (up to 50), most frequent first */
   topCategories?: { value: string; count: number }[];
   /** dates only: how day and month are ordered; 'ambiguous' needs `dateOrder` in the mapping */
   dateOrder?: 'dmy' | 'mdy' | 'ambiguous' | 'not-needed';

@@ -13,6 +13,7 @@ import { AppError, errorHandler, notFoundHandler } from './lib/errors';
 import { logger } from './lib/logger';
 import { auditRouter } from './modules/audit/audit.routes';
 import { authRouter } from './modules/auth/auth.routes';
+import { datasetsRouter } from './modules/datasets/datasets.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
 import { policyRouter } from './modules/policy/policy.routes';
@@ -126,6 +127,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   // Feature routers, one line each.
   app.use(policyRouter());
   app.use(auditRouter());
+  app.use(datasetsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);

@@ -3,7 +3,8 @@
 import { writeFileSync } from 'node:fs';
 import { parseArgs } from 'node:util';
 import { generateQuillfernExport, QUILLFERN_NOTE } from './quillfern';
-import { quillfernCsv, quillfernXlsx } from './quillfern-files';
+import { quillfernCsv } from './quillfern-csv';
+import { quillfernXlsx } from './quillfern-xlsx';
 
 const { values } = parseArgs({
   options: {

@@ -1,13 +1,16 @@
 import { DataSource } from 'typeorm';
 import { AuditEvent } from '../entities/audit-event.entity';
+import { Dataset } from '../entities/dataset.entity';
+import { DatasetColumn } from '../entities/dataset-column.entity';
 import { PolicyVersion } from '../entities/policy-version.entity';
 import { User } from '../entities/user.entity';
 import { Foundation1796150136015 } from '../migrations/1796150136015-foundation';
 import { PrivacyPolicy1796150959571 } from '../migrations/1796150959571-privacy-policy';
+import { Datasets1796151046358 } from '../migrations/1796151046358-datasets';
 
 /** Every entity and migration, listed (not globbed) so they load the same under tsx and vitest. */
-export const entities = [User, AuditEvent, PolicyVersion];
-export const migrations = [Foundation1796150136015, PrivacyPolicy1796150959571];
+export const entities = [User, AuditEvent, PolicyVersion, Dataset, DatasetColumn];
+export const migrations = [Foundation1796150136015, PrivacyPolicy1796150959571, Datasets1796151046358];
 
 export function createDataSource(url: string): DataSource {
   return new DataSource({

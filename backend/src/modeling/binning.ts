@@ -57,64 +57,97 @@ function binColumn(column: Column, maxBins: number, offset: number): BinnedFeatu
     };
   }
   const values = column.values;
+  const n = values.length;
   let present = 0;
-  for (let i = 0; i < values.length; i++) if (!Number.isNaN(values[i])) present++;
-  const sorted = new Float64Array(present);
-  for (let i = 0, j = 0; i < values.length; i++) if (!Number.isNaN(values[i])) sorted[j++] = values[i];
-  sorted.sort();
-
-  // distinct values and their counts
-  const distinct: number[] = [];
-  const counts: number[] = [];
-  for (let i = 0; i < sorted.length; i++) {
-    if (i === 0 || sorted[i] !== sorted[i - 1]) {
-      distinct.push(sorted[i]);
-      counts.push(1);
-    } else counts[counts.length - 1]++;
-  }
-
-  // groups of consecutive distinct values, each group one bin: [firstIndex, lastIndex]
-  const groupEnds: number[] = [];
-  if (distinct.length <= maxBins) {
-    for (let i = 0; i < distinct.length; i++) groupEnds.push(i);
-  } else {
-    let cumulative = 0;
-    let next = present / maxBins;
-    for (let i = 0; i < distinct.length; i++) {
-      cumulative += counts[i];
-      if (cumulative >= next || i === distinct.length - 1) {
-        groupEnds.push(i);
-        while (next <= cumulative) next += present / maxBins;
-      }
-    }
-  }
-  const nBins = groupEnds.length;
-  const binMin = new Float64Array(nBins + 1).fill(Number.NaN);
-  const binMax = new Float64Array(nBins + 1).fill(Number.NaN);
-  const cuts = new Float64Array(Math.max(0, nBins - 1));
-  let start = 0;
-  for (let b = 0; b < nBins; b++) {
-    binMin[b + 1] = distinct[start];
-    binMax[b + 1] = distinct[groupEnds[b]];
-    start = groupEnds[b] + 1;
-  }
-  for (let b = 1; b < nBins; b++) cuts[b - 1] = midpoint(binMax[b], binMin[b + 1]);
-
-  const bins = new Uint16Array(values.length);
-  for (let i = 0; i < values.length; i++) {
+  // exact bins when the column has at most maxBins distinct values (checked in one pass)
+  let distinctSet: Set<number> | null = new Set<number>();
+  for (let i = 0; i < n; i++) {
     const v = values[i];
     if (Number.isNaN(v)) continue;
-    // first cut with v <= cut; bin = its index + 1
-    let lo = 0;
-    let hi = cuts.length;
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      if (v <= cuts[mid]) hi = mid;
-      else lo = mid + 1;
+    present++;
+    if (distinctSet) {
+      distinctSet.add(v);
+      if (distinctSet.size > maxBins) distinctSet = null;
     }
-    bins[i] = lo + 1;
   }
-  return { name: column.name, kind: 'numeric', bins, nBins, binMin, binMax, levels: [], offset };
+  let cuts: Float64Array;
+  if (distinctSet) {
+    const distinct = Float64Array.from(distinctSet).sort();
+    cuts = new Float64Array(Math.max(0, distinct.length - 1));
+    for (let b = 0; b < cuts.length; b++) cuts[b] = midpoint(distinct[b], distinct[b + 1]);
+  } else {
+    cuts = quantileCuts(values, present, maxBins);
+  }
+  const nBins = cuts.length + 1;
+  const bins = new Uint16Array(n);
+  const binMin = new Float64Array(nBins + 1).fill(Number.POSITIVE_INFINITY);
+  const binMax = new Float64Array(nBins + 1).fill(Number.NEGATIVE_INFINITY);
+  // a coarse grid over the cuts' range points each value near its bin; a short scan finishes
+  const first = cuts.length > 0 ? cuts[0] : 0;
+  const last = cuts.length > 0 ? cuts[cuts.length - 1] : 0;
+  const cells = 4 * (cuts.length + 1);
+  const scale = last > first ? cells / (last - first) : 0;
+  const start = new Int32Array(cells + 1);
+  for (let c = 0, b = 0; c <= cells; c++) {
+    const lower = first + c / scale;
+    while (b < cuts.length && cuts[b] < lower) b++;
+    start[c] = Math.max(0, b - 1);
+  }
+  for (let i = 0; i < n; i++) {
+    const v = values[i];
+    if (Number.isNaN(v)) continue;
+    // bin = index of the first cut with v <= cut, plus one
+    let b = 0;
+    if (v > first) {
+      const c = scale > 0 ? Math.min(cells, Math.floor((v - first) * scale)) : 0;
+      b = start[c];
+      while (b < cuts.length && v > cuts[b]) b++;
+      while (b > 0 && v <= cuts[b - 1]) b--;
+    }
+    b += 1;
+    bins[i] = b;
+    if (v < binMin[b]) binMin[b] = v;
+    if (v > binMax[b]) binMax[b] = v;
+  }
+  return {
+    name: column.name,
+    kind: 'numeric',
+    bins,
+    nBins: present > 0 ? nBins : 0,
+    binMin,
+    binMax,
+    levels: [],
+    offset,
+  };
+}
+
+const QUANTILE_SAMPLE = 25_000;
+
+/**
+ * Cut points between bins of about equal row counts, from a systematic sample of the present
+ * values; each cut is a midpoint between two consecutive distinct sample values.
+ */
+function quantileCuts(values: Float64Array, present: number, maxBins: number): Float64Array {
+  const step = Math.max(1, Math.floor(present / QUANTILE_SAMPLE));
+  const sample = new Float64Array(Math.ceil(present / step));
+  let size = 0;
+  for (let i = 0, k = 0; i < values.length; i++) {
+    const v = values[i];
+    if (Number.isNaN(v)) continue;
+    if (k % step === 0 && size < sample.length) sample[size++] = v;
+    k++;
+  }
+  const sorted = sample.subarray(0, size).sort();
+  const cuts: number[] = [];
+  let next = size / maxBins;
+  for (let i = 0; i < size - 1; i++) {
+    if (i + 1 >= next && sorted[i + 1] !== sorted[i]) {
+      cuts.push(midpoint(sorted[i], sorted[i + 1]));
+      while (next <= i + 1) next += size / maxBins;
+      if (cuts.length >= maxBins - 1) break;
+    }
+  }
+  return Float64Array.from(cuts);
 }
 
 /** Midpoint of two consecutive values; if rounding lands on the upper value, use the lower one. */

@@ -32,6 +32,7 @@ export function growOptions(options: FitOptions): GrowOptions {
     minImpurityDecrease: options.minImpurityDecrease ?? DEFAULT_GROW_OPTIONS.minImpurityDecrease,
     classWeight: options.classWeight ?? DEFAULT_GROW_OPTIONS.classWeight,
     k: options.k ?? DEFAULT_GROW_OPTIONS.k,
+    ...(options.minCategoryRows !== undefined ? { minCategoryRows: options.minCategoryRows } : {}),
   };
 }
 

@@ -13,7 +13,17 @@ export type GrowOptions = {
   classWeight: ClassWeight;
   /** the privacy policy's minimum group size: no leaf is smaller than max(minLeaf, k) */
   k: number;
+  /**
+   * a categorical level with fewer rows at a node is not split off from the levels never seen
+   * there (default: 1 per 1,000 training rows, from 1 to 100)
+   */
+  minCategoryRows?: number;
 };
+
+/** One row per thousand, 1 to 100, after LightGBM's min_data_per_group of 100 (common practice). */
+export function defaultMinCategoryRows(trainingRows: number): number {
+  return Math.min(100, Math.max(1, Math.floor(trainingRows / 1000)));
+}
 
 /** Training data after binning: features, a 0/1 label and optional row weights, indexed by row. */
 export type TrainingData = {
@@ -114,6 +124,7 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
   const minLeaf = effectiveMinLeaf(options);
   const minSplit = Math.max(2, Math.floor(options.minSplit), 2 * minLeaf);
   const maxDepth = Math.max(0, Math.floor(options.maxDepth));
+  const minCategoryRows = options.minCategoryRows ?? defaultMinCategoryRows(rows.length);
   const w = rowWeights(data, rows, options.classWeight);
   const scratch = new Int32Array(rows.length);
   const nodes: GrownNode[] = [];
@@ -132,20 +143,38 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
   const splittable = (n: number, positive: number, depth: number) =>
     depth < maxDepth && n >= minSplit && positive > 0 && positive < n;
 
+  // with every weight 1 the weight column equals the count, so it is filled in afterwards
+  let unweighted = true;
+  for (let i = 0; i < rows.length && unweighted; i++) if (w[rows[i]] !== 1) unweighted = false;
+  const weightedLabel = new Float64Array(w.length);
+  for (let i = 0; i < rows.length; i++) weightedLabel[rows[i]] = w[rows[i]] * label[rows[i]];
+  const pool: Float64Array[] = [];
+  const release = (h: Float64Array | null) => {
+    if (h) pool.push(h);
+  };
   const buildHistogram = (start: number, end: number): Float64Array => {
-    const h = new Float64Array(3 * data.totalSlots);
+    const h = pool.pop()?.fill(0) ?? new Float64Array(3 * data.totalSlots);
     for (let f = 0; f < features.length; f++) {
       const bins = features[f].bins;
       const base = 3 * features[f].offset;
-      for (let i = start; i < end; i++) {
-        const r = rows[i];
-        const j = base + 3 * bins[r];
-        const wr = w[r];
-        h[j] += 1;
-        h[j + 1] += wr;
-        if (label[r] === 1) h[j + 2] += wr;
+      if (unweighted) {
+        for (let i = start; i < end; i++) {
+          const r = rows[i];
+          const j = base + 3 * bins[r];
+          h[j] += 1;
+          h[j + 2] += label[r];
+        }
+      } else {
+        for (let i = start; i < end; i++) {
+          const r = rows[i];
+          const j = base + 3 * bins[r];
+          h[j] += 1;
+          h[j + 1] += w[r];
+          h[j + 2] += weightedLabel[r];
+        }
       }
     }
+    if (unweighted) for (let j = 0; j < h.length; j += 3) h[j + 1] = h[j];
     return h;
   };
 
@@ -191,12 +220,27 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
       else nodes[item.parent].right = id;
     }
     const hist = item.hist;
-    if (!hist || node.impurity <= EPSILON) continue;
+    if (!hist) continue;
+    if (node.impurity <= EPSILON) {
+      release(hist);
+      continue;
+    }
 
-    const best = findBestSplit(hist, features, isGini, n, item.weight, item.weightedPositive, minLeaf);
-    if (!best) continue;
-    const improvement = (nodeCost - best.cost) / totalWeight;
-    if (improvement + EPSILON < options.minImpurityDecrease) continue;
+    const best = findBestSplit(
+      hist,
+      features,
+      isGini,
+      n,
+      item.weight,
+      item.weightedPositive,
+      minLeaf,
+      minCategoryRows,
+    );
+    const improvement = best ? (nodeCost - best.cost) / totalWeight : 0;
+    if (!best || improvement + EPSILON < options.minImpurityDecrease) {
+      release(hist);
+      continue;
+    }
 
     // partition rows: left ones stay in front (stable), right ones go through the scratch buffer
     const f = features[best.feature];
@@ -246,7 +290,9 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
       for (let j = 0; j < hist.length; j++) hist[j] -= small[j];
       leftHist = leftSmaller ? small : hist;
       rightHist = leftSmaller ? hist : small;
-    }
+      if (!leftNeeds) release(leftHist);
+      if (!rightNeeds) release(rightHist);
+    } else release(hist);
     stack.push({
       start: l,
       end: item.end,
@@ -281,6 +327,7 @@ function findBestSplit(
   weight: number,
   weightedPositive: number,
   minLeaf: number,
+  minCategoryRows: number,
 ): Best | null {
   let best: Best | null = null;
   // a later candidate must beat the best by more than rounding error, so ties keep the first
@@ -298,7 +345,10 @@ function findBestSplit(
 
     // bins with rows at this node, in split order
     const order: number[] = [];
-    for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] > 0) order.push(b);
+    // rare levels at this node stay on the right with levels never seen: ordering many small
+    // levels by their share mostly fits noise
+    const least = feature.kind === 'categorical' ? Math.max(1, minCategoryRows) : 1;
+    for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] >= least) order.push(b);
     if (order.length < 2) continue;
     if (feature.kind === 'categorical') {
       // ordering levels by their (weighted) share of leavers gives the optimal binary split

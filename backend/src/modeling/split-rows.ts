@@ -53,8 +53,7 @@ export function stratifiedHoldout(
     for (let i = 0; i < label.length; i++) if ((label[i] ? 1 : 0) === cls) members.push(i);
     shuffle(members, random);
     const cut = Math.round(members.length * share);
-    test.push(...members.slice(0, cut));
-    train.push(...members.slice(cut));
+    for (let i = 0; i < members.length; i++) (i < cut ? test : train).push(members[i]);
   }
   return {
     train: Int32Array.from(train).sort(),

@@ -135,10 +135,11 @@ export function trainModel(
 
   report('pruning', 0.8);
   const weights = rowWeights(data, Int32Array.from(train), grow.classWeight);
+  const stats = foldStatistics(foldModels, table, y, weights);
   const path = candidateAlphas(fullSequence).map((alpha, j) => ({
     alpha,
     leaves: leavesAt(fullSequence, alpha),
-    ...crossValidatedError(foldModels, table, y, weights, alpha),
+    ...crossValidatedError(stats, alpha),
     j,
   }));
   let chosen = 0;
@@ -170,8 +171,8 @@ export function trainModel(
       );
       const labels = Array.from(fold.validation, (r) => y[r]);
       foldMetrics.push(computeMetrics(labels, scores, threshold));
-      pooledRows.push(...fold.validation);
-      pooledScores.push(...scores);
+      for (const r of fold.validation) pooledRows.push(r);
+      for (const score of scores) pooledScores.push(score);
     }
     const keys = Object.keys(foldMetrics[0]) as (keyof Metrics)[];
     crossValidation = {
@@ -255,49 +256,81 @@ function leavesAt(sequence: PruningSequence, alpha: number): number {
   return leaves;
 }
 
+type FoldStats = {
+  fold: FoldModel;
+  /** per node of the fold's full tree: held-out weight, weighted leavers, and their squares */
+  w: Float64Array;
+  wp: Float64Array;
+  w2: Float64Array;
+  w2p: Float64Array;
+};
+
+/** Held-out rows summed per leaf of each fold's full tree, once for all candidate α. */
+function foldStatistics(
+  foldModels: FoldModel[],
+  table: Table,
+  y: Uint8Array,
+  weights: Float64Array,
+): FoldStats[] {
+  return foldModels.map((fold) => {
+    const count = fold.grown.nodes.length;
+    const stats = {
+      fold,
+      w: new Float64Array(count),
+      wp: new Float64Array(count),
+      w2: new Float64Array(count),
+      w2p: new Float64Array(count),
+    };
+    // the JSON tree lists nodes in the same pre-order as the grown tree
+    const leaves = leafIndicesOf(compileTree(toTreeJson(fold.grown), table), fold.validation);
+    for (let k = 0; k < fold.validation.length; k++) {
+      const r = fold.validation[k];
+      const leaf = leaves[k];
+      const w = weights[r];
+      stats.w[leaf] += w;
+      stats.w2[leaf] += w * w;
+      if (y[r] === 1) {
+        stats.wp[leaf] += w;
+        stats.w2p[leaf] += w * w;
+      }
+    }
+    return stats;
+  });
+}
+
 /**
  * Weighted Brier score of the fold trees pruned at α on their held-out rows, with the standard
  * error of that mean taken over rows (as rpart's xstd).
  */
 function crossValidatedError(
-  foldModels: FoldModel[],
-  table: Table,
-  y: Uint8Array,
-  weights: Float64Array,
+  folds: FoldStats[],
   alpha: number,
 ): { cvError: number; cvStandardError: number } {
-  if (foldModels.length === 0) return { cvError: Number.NaN, cvStandardError: Number.NaN };
+  if (folds.length === 0) return { cvError: Number.NaN, cvStandardError: Number.NaN };
   let loss = 0;
   let lossSquared = 0;
   let lossTimesWeight = 0;
   let weight = 0;
   let weightSquared = 0;
-  for (const fold of foldModels) {
-    const compiled = compileTree(toTreeJson(fold.grown), table);
-    const leaves = leafIndicesOf(compiled, fold.validation);
+  for (const { fold, w, wp, w2, w2p } of folds) {
+    const nodes = fold.grown.nodes;
     const isLeaf = leafAtAlpha(fold.sequence, alpha);
-    // the node a held-out row ends in: the first node on its path that is a leaf at α
-    const parent = new Int32Array(fold.grown.nodes.length);
-    fold.grown.nodes.forEach((n, i) => {
-      parent[i] = n.parent;
-    });
-    const endsAt = new Int32Array(fold.grown.nodes.length);
-    fold.grown.nodes.forEach((_, i) => {
-      let top = i;
-      for (let a = i; a >= 0; a = parent[a]) if (isLeaf(a)) top = a;
-      endsAt[i] = top;
-    });
-    for (let k = 0; k < fold.validation.length; k++) {
-      const r = fold.validation[k];
-      const node = fold.grown.nodes[endsAt[leaves[k]]];
+    for (let leaf = 0; leaf < nodes.length; leaf++) {
+      if (w[leaf] === 0) continue;
+      // a held-out row ends in the topmost node on its path that is a leaf at α
+      let top = leaf;
+      for (let a = leaf; a >= 0; a = nodes[a].parent) if (isLeaf(a)) top = a;
+      const node = nodes[top];
       const p = node.weight > 0 ? node.weightedPositive / node.weight : 0;
-      const w = weights[r];
-      const l = w * (y[r] - p) ** 2;
-      loss += l;
-      lossSquared += l * l;
-      lossTimesWeight += l * w;
-      weight += w;
-      weightSquared += w * w;
+      const q = 1 - p;
+      const negatives = w[leaf] - wp[leaf];
+      const negativesSquared = w2[leaf] - w2p[leaf];
+      // leavers lose (1 − p)², stayers p², each times its weight
+      loss += q * q * wp[leaf] + p * p * negatives;
+      lossSquared += q ** 4 * w2p[leaf] + p ** 4 * negativesSquared;
+      lossTimesWeight += q * q * w2p[leaf] + p * p * negativesSquared;
+      weight += w[leaf];
+      weightSquared += w2[leaf];
     }
   }
   const error = loss / weight;

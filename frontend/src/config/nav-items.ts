@@ -14,6 +14,9 @@ export type NavItem = {
 /** One entry per feature screen that exists; add yours when the screen works. */
 export const navItems: readonly NavItem[] = [
   { href: paths.home.href(), label: 'Home', roles: ['analyst', 'privacy_officer', 'manager'], end: true },
+  { href: paths.datasets.href(), label: 'Datasets', roles: ['analyst', 'privacy_officer'] },
+  { href: paths.privacyPolicy.href(), label: 'Privacy policy', roles: ['analyst', 'privacy_officer'] },
+  { href: paths.auditTrail.href(), label: 'Audit trail', roles: ['privacy_officer'] },
 ];
 
 export function navItemsFor(roles: readonly Role[], items: readonly NavItem[] = navItems): NavItem[] {

@@ -4,6 +4,22 @@ export const paths = {
     path: '/',
     href: () => '/',
   },
+  datasets: {
+    path: '/datasets',
+    href: () => '/datasets',
+  },
+  dataset: {
+    path: '/datasets/:id',
+    href: (id: string) => `/datasets/${encodeURIComponent(id)}`,
+  },
+  privacyPolicy: {
+    path: '/privacy-policy',
+    href: () => '/privacy-policy',
+  },
+  auditTrail: {
+    path: '/audit',
+    href: () => '/audit',
+  },
   signIn: {
     path: '/auth/login',
     href: (returnTo: string) => `/auth/login?returnTo=${encodeURIComponent(returnTo)}`,

@@ -5,7 +5,8 @@ import {
   generateQuillfernExport,
   QUILLFERN_MAPPING,
 } from '../../../backend/src/demo/quillfern';
-import { quillfernCsv, quillfernXlsx } from '../../../backend/src/demo/quillfern-files';
+import { quillfernCsv } from '../../../backend/src/demo/quillfern-csv';
+import { quillfernXlsx } from '../../../backend/src/demo/quillfern-xlsx';
 import { deriveOutcome } from '../../../backend/src/modules/datasets/derive-outcome';
 import { parseUpload } from '../../../backend/src/modules/datasets/parsing/parse-upload';
 

@@ -8,7 +8,7 @@ describe('the workbook reader under tsx (how the server runs)', () => {
   it('starts its worker and reads a workbook', async () => {
     const script = `
       import { generateQuillfernExport } from './backend/src/demo/quillfern';
-      import { quillfernXlsx } from './backend/src/demo/quillfern-files';
+      import { quillfernXlsx } from './backend/src/demo/quillfern-xlsx';
       import { parseUpload } from './backend/src/modules/datasets/parsing/parse-upload';
       parseUpload(quillfernXlsx(generateQuillfernExport({ rows: 30, seed: 1 }))).then((parsed) => {
         console.log(JSON.stringify({ format: parsed.format, rows: parsed.table.rowNumbers.length, sheet: parsed.sheetName }));

@@ -4,6 +4,7 @@ import { fitTree } from '../../../backend/src/modeling/fit.js';
 import { rocAuc } from '../../../backend/src/modeling/metrics.js';
 import { pruningSequence } from '../../../backend/src/modeling/prune.js';
 import { buildTable, selectRows, type Table } from '../../../backend/src/modeling/table.js';
+import { trainModel } from '../../../backend/src/modeling/train.js';
 import { predict } from '../../../backend/src/modeling/tree-json.js';
 import { isInternal, type TreeNode } from '../../../shared/tree.js';
 
@@ -67,6 +68,30 @@ describe('breast cancer trees against scikit-learn 1.2.1', () => {
       '0.0342247477',
       '0.3272984419',
     ]);
+  });
+
+  it('chooses α by cross-validation among the geometric means of that path', () => {
+    const train = selectRows(table, fixture.trainIndices);
+    const result = trainModel(train, pick(fixture.malignant, fixture.trainIndices), {
+      ...exact,
+      minLeaf: 1,
+      maxDepth: 1000,
+      pruning: 'cv',
+      folds: 5,
+      seed: 4,
+    });
+    const a = fixture.pruningPath.alphas;
+    const expected = a.map((alpha, i) => (i + 1 < a.length ? Math.sqrt(alpha * a[i + 1]) : alpha));
+    result.pruning.path.forEach((step, i) => {
+      expect(step.alpha).toBeCloseTo(expected[i], 9);
+    });
+    expect(expected.map((x) => x.toFixed(9))).toContain(result.pruning.alpha.toFixed(9));
+    // the one-standard-error rule picks a tree no larger than the one with the lowest error
+    const best = result.pruning.path.reduce((b, s) => (s.cvError < b.cvError ? s : b));
+    const chosen = result.pruning.path.find((s) => s.alpha === result.pruning.alpha)!;
+    expect(chosen.leaves).toBeLessThanOrEqual(best.leaves);
+    expect(chosen.cvError).toBeLessThanOrEqual(best.cvError + best.cvStandardError);
+    expect(result.segments.length).toBe(chosen.leaves);
   });
 
   for (const reference of fixture.holdoutAuc) {

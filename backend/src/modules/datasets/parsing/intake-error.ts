@@ -1,19 +1,17 @@
+import { AppError } from '../../../lib/errors';
+
 /** A problem with an uploaded file or a mapping; becomes the JSON error of API.md. */
 export type IntakeErrorStatus = 400 | 413 | 415 | 422;
 
 export type RowProblem = { row: number; column?: string; reason: string };
 
-export class IntakeError extends Error {
-  readonly code: string;
-  readonly status: IntakeErrorStatus;
-  readonly details?: unknown;
+/** An AppError the intake raises; the app's error middleware turns it into the JSON error. */
+export class IntakeError extends AppError {
+  declare readonly status: IntakeErrorStatus;
 
   constructor(code: string, status: IntakeErrorStatus, message: string, details?: unknown) {
-    super(message);
+    super(code, status, message, details);
     this.name = 'IntakeError';
-    this.code = code;
-    this.status = status;
-    this.details = details;
   }
 }
 

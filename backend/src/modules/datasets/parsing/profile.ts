@@ -2,7 +2,8 @@ import type { ColumnProfile } from '../../../../../shared/datasets';
 import { flagColumn } from './flags';
 import type { TypedColumn, TypedTable } from './type-columns';
 
-const TOP_CATEGORIES = 10;
+// Enough for the mapping form to offer every reason or flag value as a checkbox.
+const TOP_CATEGORIES = 50;
 
 function medianOfSorted<T extends number | string>(sorted: T[]): T {
   const middle = Math.floor((sorted.length - 1) / 2);

@@ -1,0 +1,7 @@
+declare module 'ml-cart' {
+  export class DecisionTreeClassifier {
+    constructor(options?: { gainFunction?: 'gini'; maxDepth?: number; minNumSamples?: number });
+    train(x: number[][], y: number[]): void;
+    predict(x: number[][]): number[];
+  }
+}

@@ -1,0 +1,90 @@
+import { z } from 'zod';
+
+/** A figure about too few employees to show. */
+export const withheldSchema = z.object({ withheld: z.literal(true) }).strict();
+const orWithheld = <T extends z.ZodType>(schema: T) => z.union([schema, withheldSchema]);
+
+export const proxyDecisionKindSchema = z.enum(['block', 'accept']);
+
+/** `POST /api/datasets/:id/proxies/decisions`: block the allowed field too, or accept it with a reason. */
+export const proxyDecisionSchema = z.object({
+  feature: z.string().trim().min(1, 'feature names the allowed column'),
+  blockedField: z.string().trim().min(1, 'blockedField names the blocked column'),
+  decision: proxyDecisionKindSchema,
+  reason: z
+    .string({ error: 'reason is required: say why' })
+    .trim()
+    .min(3, 'reason is required: say why')
+    .max(500, 'reason is at most 500 characters'),
+});
+export type ProxyDecisionBody = z.infer<typeof proxyDecisionSchema>;
+
+export const proxyRowSchema = z.object({
+  feature: z.string(),
+  blockedField: z.string(),
+  cramersV: z.number(),
+  normalisedMutualInformation: z.number(),
+  chiSquare: z.number(),
+  dof: z.number().int(),
+  n: z.number().int(),
+  /** quantile bins used where the column is a number or a date; null for categories */
+  featureBins: z.number().int().nullable(),
+  blockedFieldBins: z.number().int().nullable(),
+  strength: z.enum(['negligible', 'small', 'medium', 'large']),
+  flagged: z.boolean(),
+  decision: z
+    .object({
+      decision: proxyDecisionKindSchema,
+      reason: z.string(),
+      by: z.string().nullable(),
+      at: z.string(),
+    })
+    .nullable(),
+});
+export type ProxyRowView = z.infer<typeof proxyRowSchema>;
+
+/** `GET /api/datasets/:id/proxies`. */
+export const proxyReportSchema = z.object({
+  datasetId: z.string(),
+  policyVersion: z.number().int(),
+  threshold: z.number(),
+  /** quantile bins for numbers and dates */
+  bins: z.number().int(),
+  rows: z.array(proxyRowSchema),
+});
+export type ProxyReportView = z.infer<typeof proxyReportSchema>;
+
+/** `POST /api/datasets/:id/approval`: approve for modelling, or send back to the analyst with a comment. */
+export const approvalSchema = z
+  .object({
+    decision: z.enum(['approve', 'send-back']).default('approve'),
+    comment: z.string().trim().max(1000, 'comment is at most 1000 characters').optional(),
+  })
+  .refine((body) => body.decision === 'approve' || (body.comment?.length ?? 0) >= 3, {
+    path: ['comment'],
+    message: 'comment is required when sending back: tell the analyst what to change',
+  });
+export type ApprovalBody = z.infer<typeof approvalSchema>;
+
+export const fairnessGroupSchema = z.object({
+  group: z.string(),
+  headcount: orWithheld(z.number()),
+  leavers: orWithheld(z.number()),
+  attritionRate: orWithheld(z.number()),
+  meanPredictedRisk: orWithheld(z.number()),
+  retentionRate: orWithheld(z.number()),
+  retentionRatio: orWithheld(z.number().nullable()),
+  reference: z.boolean(),
+  flagged: z.boolean(),
+  withheld: z.boolean(),
+});
+export type FairnessGroupView = z.infer<typeof fairnessGroupSchema>;
+
+export const fairnessReportSchema = z.object({
+  field: z.string(),
+  rule: z.string(),
+  bins: z.number().int().nullable(),
+  k: z.number().int(),
+  groups: z.array(fairnessGroupSchema),
+});
+export type FairnessReportView = z.infer<typeof fairnessReportSchema>;
