@@ -3,18 +3,34 @@ import type request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { z } from 'zod';
 import { routeTable } from '../../../backend/src/lib/route-table';
+import { datasetMappingSchema } from '../../../shared/datasets';
 import { policyUpdateSchema } from '../../../shared/policy';
 import { routeKey } from '../../helpers/access-matrix';
 import { rowCounts } from '../../helpers/db-snapshot';
+import { validCsv } from '../../helpers/hostile-files';
 import { arbitraryWrongBody, hostileVariants, prototypeClean } from '../../helpers/hostile-json';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
 
 let coppice: TestCoppice;
 let privacy: request.Agent;
+let analyst: request.Agent;
+let datasetId: string;
 beforeAll(async () => {
   coppice = await startTestCoppice();
   privacy = await coppice.signIn(ACCOUNTS.privacy);
+  analyst = await coppice.signIn(ACCOUNTS.analyst);
+  const uploaded = await analyst.post('/api/datasets').attach('file', Buffer.from(validCsv()), 'staff.csv');
+  expect(uploaded.status).toBe(201);
+  datasetId = uploaded.body.id;
 });
+
+const MAPPING = {
+  employeeId: 'Staff No',
+  team: 'Crew',
+  managerEmail: 'Line Manager Email',
+  outcome: { kind: 'flag', column: 'Left', positiveValues: ['Yes'] },
+  excluded: [],
+};
 afterAll(async () => {
   await coppice?.stop();
 });
@@ -45,6 +61,22 @@ const ROUTES: Record<string, BodyRoute> = {
     schema: policyUpdateSchema,
     reads: ['/api/policy', '/api/policy/versions'],
   },
+  'PUT /api/datasets/:p/mapping': {
+    method: 'put',
+    path: () => `/api/datasets/${datasetId}/mapping`,
+    agent: () => analyst,
+    valid: MAPPING,
+    schema: datasetMappingSchema,
+    reads: [`/api/datasets`, '/api/datasets/:id'],
+  },
+  'POST /api/datasets/:p/mapping/preview': {
+    method: 'post',
+    path: () => `/api/datasets/${datasetId}/mapping/preview`,
+    agent: () => analyst,
+    valid: MAPPING,
+    schema: datasetMappingSchema,
+    reads: ['/api/datasets/:id'],
+  },
 };
 
 // State-changing routes without a JSON body, and why.
@@ -58,7 +90,7 @@ const SHAPE_ERRORS = ['invalid_body', 'invalid_json', 'too_large'];
 
 async function snapshot(route: BodyRoute) {
   const reads: unknown[] = [];
-  for (const path of route.reads) reads.push((await route.agent().get(path)).body);
+  for (const path of route.reads) reads.push((await route.agent().get(path.replace(':id', datasetId))).body);
   return { reads, counts: await rowCounts(coppice) };
 }
 
