@@ -115,6 +115,13 @@ describe('two app processes and two workers on one PostgreSQL', () => {
     expect(states).toEqual([{ state: 'completed', n: String(subjects.length) }]);
   });
 
+  it('seeds the invented demo dataset once, though both app processes started at the same moment', async () => {
+    const rows = await coppice.sql<{ n: string }>(
+      "SELECT count(*) AS n FROM datasets WHERE name LIKE '%invented demo data%'",
+    );
+    expect(Number(rows[0].n)).toBe(1);
+  });
+
   it('keeps both app processes answering after all of this', async () => {
     for (const app of apps) expect((await request(app.url).get('/api/health')).status).toBe(200);
     for (const p of [...apps, ...workers]) expect(p.child.exitCode).toBeNull();
