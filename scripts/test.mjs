@@ -25,12 +25,9 @@ const vitestArgs = process.argv.slice(2);
 
 ensureNodeModules(root);
 const bin = ensurePostgres();
-// Debian packages the test suite needs: Chromium for the browser suite, scikit-learn as a reference.
-const missing = [];
-if (!existsSync('/usr/bin/chromium')) missing.push('chromium');
-if (spawnSync('/usr/bin/python3', ['-c', 'import sklearn'], { stdio: 'ignore' }).status !== 0)
-  missing.push('python3-sklearn');
-if (missing.length) aptInstall(missing);
+// Debian's Chromium for the browser suite. (The scikit-learn reference values are committed
+// fixtures made by tests/fixtures/make-sklearn-fixtures.py; only `npm run bench` needs scikit-learn.)
+if (!existsSync('/usr/bin/chromium')) aptInstall(['chromium']);
 
 const dir = path.join(mkdtempSync(path.join(os.tmpdir(), 'coppice-test-')), 'pg');
 const port = await freePort();

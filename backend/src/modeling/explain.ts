@@ -211,15 +211,17 @@ export type GroupAttribution =
 
 /**
  * Averages path attributions over a group of rows (a team) and sets them beside the whole table's
- * (the organisation). A group of fewer than k rows is withheld.
+ * (the organisation). A group of fewer than k rows is withheld. Pass `attributions` (from
+ * pathAttributions on the same tree and table) to reuse them across many teams.
  */
 export function aggregateAttributions(
-  tree: TreeNode,
+  model: TreeNode | { tree: TreeNode },
   table: Table,
   rowIndices: ArrayLike<number>,
   options: { k?: number; attributions?: RowAttributions } = {},
 ): GroupAttribution {
   if (rowIndices.length === 0 || rowIndices.length < (options.k ?? 1)) return { withheld: true };
+  const tree = 'tree' in model ? model.tree : model;
   const a = options.attributions ?? pathAttributions(tree, table);
   const mean = (values: Float64Array, rows?: ArrayLike<number>) => {
     let sum = 0;

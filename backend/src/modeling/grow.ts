@@ -15,14 +15,14 @@ export type GrowOptions = {
   k: number;
   /**
    * a categorical level with fewer rows at a node is not split off from the levels never seen
-   * there (default: 1 per 1,000 training rows, from 1 to 100)
+   * there (default: 1 per 200 training rows, from 1 to 100)
    */
   minCategoryRows?: number;
 };
 
-/** One row per thousand, 1 to 100, after LightGBM's min_data_per_group of 100 (common practice). */
+/** One row per 200, 1 to 100, after LightGBM's min_data_per_group of 100 (common practice). */
 export function defaultMinCategoryRows(trainingRows: number): number {
-  return Math.min(100, Math.max(1, Math.floor(trainingRows / 1000)));
+  return Math.min(100, Math.max(1, Math.floor(trainingRows / 200)));
 }
 
 /** Training data after binning: features, a 0/1 label and optional row weights, indexed by row. */
@@ -127,6 +127,7 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
   const minCategoryRows = options.minCategoryRows ?? defaultMinCategoryRows(rows.length);
   const w = rowWeights(data, rows, options.classWeight);
   const scratch = new Int32Array(rows.length);
+  const orderScratch = new Int32Array(features.reduce((m, f) => Math.max(m, f.nBins), 0) + 1);
   const nodes: GrownNode[] = [];
 
   let rootPositive = 0;
@@ -235,6 +236,7 @@ export function growTree(data: TrainingData, rows: Int32Array, options: GrowOpti
       item.weightedPositive,
       minLeaf,
       minCategoryRows,
+      orderScratch,
     );
     const improvement = best ? (nodeCost - best.cost) / totalWeight : 0;
     if (!best || improvement + EPSILON < options.minImpurityDecrease) {
@@ -328,8 +330,14 @@ function findBestSplit(
   weightedPositive: number,
   minLeaf: number,
   minCategoryRows: number,
+  scratch: Int32Array,
 ): Best | null {
-  let best: Best | null = null;
+  // the best so far as plain numbers; the split object is built once at the end
+  let bestFeature = -1;
+  let bestOrder: Int32Array | null = null;
+  let bestPosition = -1;
+  let bestMissingLeft = false;
+  let bestCost = Number.POSITIVE_INFINITY;
   // a later candidate must beat the best by more than rounding error, so ties keep the first
   let limit = Number.POSITIVE_INFINITY;
   for (let f = 0; f < features.length; f++) {
@@ -344,66 +352,93 @@ function findBestSplit(
     const presentPositive = weightedPositive - mp;
 
     // bins with rows at this node, in split order
-    const order: number[] = [];
-    // rare levels at this node stay on the right with levels never seen: ordering many small
-    // levels by their share mostly fits noise
-    const least = feature.kind === 'categorical' ? Math.max(1, minCategoryRows) : 1;
-    for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] >= least) order.push(b);
-    if (order.length < 2) continue;
-    if (feature.kind === 'categorical') {
+    let order: Int32Array;
+    let size = 0;
+    if (feature.kind === 'numeric') {
+      order = scratch;
+      for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] > 0) order[size++] = b;
+    } else {
+      // rare levels at this node stay on the right with levels never seen: ordering many small
+      // levels by their share mostly fits noise
+      const least = Math.max(1, minCategoryRows);
+      const levels: number[] = [];
+      for (let b = 1; b <= feature.nBins; b++) if (h[base + 3 * b] >= least) levels.push(b);
       // ordering levels by their (weighted) share of leavers gives the optimal binary split
       // for a two-class outcome: Breiman et al. (1984); Hastie et al., ESL 2nd ed. §9.2.4
       const share = (b: number) => {
         const bw = h[base + 3 * b + 1];
         return bw > 0 ? h[base + 3 * b + 2] / bw : 0;
       };
-      order.sort((a, b) => share(a) - share(b) || a - b);
+      levels.sort((x, y) => share(x) - share(y) || x - y);
+      order = Int32Array.from(levels);
+      size = order.length;
     }
+    if (size < 2) continue;
 
     let lc = 0;
     let lw = 0;
     let lp = 0;
-    for (let i = 0; i < order.length - 1; i++) {
+    for (let i = 0; i < size - 1; i++) {
       const j = base + 3 * order[i];
       lc += h[j];
       lw += h[j + 1];
       lp += h[j + 2];
       const rc = presentCount - lc;
+      // the right side only shrinks from here on
+      if (rc + mc < minLeaf) break;
+      if (lc + mc < minLeaf) continue;
       const rw = presentWeight - lw;
       const rp = presentPositive - lp;
       if (mc > 0) {
-        // missing rows to the left
-        if (lc + mc >= minLeaf && rc >= minLeaf) {
-          const c = cost(isGini, lw + mw, lp + mp) + cost(isGini, rw, rp);
-          if (c < limit) {
-            limit = c - 1e-12 * c;
-            best = candidate(feature, f, order, i, true, c);
+        // missing rows to the left, then to the right
+        const c1 =
+          rc >= minLeaf ? cost(isGini, lw + mw, lp + mp) + cost(isGini, rw, rp) : Number.POSITIVE_INFINITY;
+        if (c1 < limit) {
+          limit = c1 - 1e-12 * c1;
+          bestCost = c1;
+          bestFeature = f;
+          bestOrder = order;
+          bestPosition = i;
+          bestMissingLeft = true;
+        }
+        if (lc >= minLeaf) {
+          const c2 = cost(isGini, lw, lp) + cost(isGini, rw + mw, rp + mp);
+          if (c2 < limit) {
+            limit = c2 - 1e-12 * c2;
+            bestCost = c2;
+            bestFeature = f;
+            bestOrder = order;
+            bestPosition = i;
+            bestMissingLeft = false;
           }
         }
-        if (lc >= minLeaf && rc + mc >= minLeaf) {
-          const c = cost(isGini, lw, lp) + cost(isGini, rw + mw, rp + mp);
-          if (c < limit) {
-            limit = c - 1e-12 * c;
-            best = candidate(feature, f, order, i, false, c);
-          }
-        }
-      } else if (lc >= minLeaf && rc >= minLeaf) {
+      } else if (rc >= minLeaf) {
         const c = cost(isGini, lw, lp) + cost(isGini, rw, rp);
         if (c < limit) {
           limit = c - 1e-12 * c;
+          bestCost = c;
+          bestFeature = f;
+          bestOrder = order;
+          bestPosition = i;
           // no missing rows here: later missing values follow the larger side
-          best = candidate(feature, f, order, i, lc >= rc, c);
+          bestMissingLeft = lc >= rc;
         }
       }
     }
+    // numeric orders live in the shared scratch buffer: keep the two bins around the best cut
+    if (bestFeature === f && bestOrder === scratch) {
+      bestOrder = Int32Array.of(scratch[bestPosition], scratch[bestPosition + 1]);
+      bestPosition = 0;
+    }
   }
-  return best;
+  if (bestFeature < 0 || !bestOrder) return null;
+  return candidate(features[bestFeature], bestFeature, bestOrder, bestPosition, bestMissingLeft, bestCost);
 }
 
 function candidate(
   feature: BinnedFeature,
   f: number,
-  order: number[],
+  order: Int32Array,
   position: number,
   missingGoesLeft: boolean,
   c: number,

@@ -74,7 +74,7 @@ describe('explaining a tree', () => {
 
   it('sets a team beside the organisation and withholds a team smaller than k', () => {
     const team = Array.from({ length: 40 }, (_, i) => i * 3);
-    const result = aggregateAttributions(tree, table, team, { k: 5 });
+    const result = aggregateAttributions({ tree }, table, team, { k: 5 });
     if (result.withheld) throw new Error('not expected to be withheld');
     expect(result.n).toBe(40);
     const contributions = result.drivers.reduce((s, d) => s + d.group, result.rootShare);

@@ -87,3 +87,62 @@ describe('tree properties', () => {
     );
   });
 });
+
+describe('categorical splits', () => {
+  // Breiman et al. (1984); Hastie, Tibshirani & Friedman, ESL 2nd ed. §9.2.4: for a 0/1 outcome,
+  // ordering the levels by share of class 1 finds the best of all 2^(q−1) − 1 subsets
+  it('are as good as the best of all subsets of levels', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.record({ level: fc.constantFrom('A', 'B', 'C', 'D', 'E', 'F'), y: fc.boolean() }), {
+          minLength: 2,
+          maxLength: 80,
+        }),
+        fc.constantFrom('gini' as const, 'entropy' as const),
+        (rows, criterion) => {
+          const table = buildTable([
+            { name: 'level', kind: 'categorical', values: rows.map((r) => r.level) },
+          ]);
+          const label: number[] = rows.map((r) => (r.y ? 1 : 0));
+          const impurity = (n: number, p: number) => {
+            if (n === 0 || p === 0 || p === n) return 0;
+            const q = p / n;
+            return criterion === 'gini' ? 2 * q * (1 - q) : -(q * Math.log2(q) + (1 - q) * Math.log2(1 - q));
+          };
+          const childCost = (inLeft: (level: string) => boolean) => {
+            let nl = 0;
+            let pl = 0;
+            for (const r of rows) {
+              if (inLeft(r.level)) {
+                nl++;
+                pl += r.y ? 1 : 0;
+              }
+            }
+            const nr = rows.length - nl;
+            const pr = label.reduce((a, b) => a + b, 0) - pl;
+            return nl === 0 || nr === 0
+              ? Number.POSITIVE_INFINITY
+              : nl * impurity(nl, pl) + nr * impurity(nr, pr);
+          };
+          const levels: string[] = [...new Set(rows.map((r) => r.level))];
+          let bruteForce = Number.POSITIVE_INFINITY;
+          for (let mask = 1; mask < 2 ** levels.length - 1; mask++) {
+            bruteForce = Math.min(
+              bruteForce,
+              childCost((l) => ((mask >> levels.indexOf(l)) & 1) === 1),
+            );
+          }
+          const { tree } = fitTree(table, label, { criterion, minLeaf: 1, k: 1, maxDepth: 1 });
+          if (!isInternal(tree)) {
+            // no split only when nothing can be gained: a pure node or a single level
+            expect(levels.length === 1 || label.every((y) => y === label[0])).toBe(true);
+            return;
+          }
+          const left = new Set(tree.split.categories);
+          expect(childCost((l) => left.has(l))).toBeCloseTo(bruteForce, 9);
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+});
