@@ -80,6 +80,8 @@ export type ColumnProfile = {
   topCategories?: { value: string; count: number }[];
   /** dates only: how day and month are ordered; 'ambiguous' needs `dateOrder` in the mapping */
   dateOrder?: 'dmy' | 'mdy' | 'ambiguous' | 'not-needed';
+  /** how the column is kept: its values, keyed hashes of them, or not at all */
+  storage?: 'values' | 'keyed-hash' | 'not-stored';
   /** dropped before storage */
   directIdentifier?: { kind: DirectIdentifierKind; reason: string };
   /** suggested to the privacy officer as a blocked field */

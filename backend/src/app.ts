@@ -16,7 +16,9 @@ import { authRouter } from './modules/auth/auth.routes';
 import { datasetsRouter } from './modules/datasets/datasets.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
+import { modelsRouter } from './modules/models/models.routes';
 import { policyRouter } from './modules/policy/policy.routes';
+import { reviewRouter } from './modules/review/review.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
 
@@ -127,7 +129,9 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   // Feature routers, one line each.
   app.use(policyRouter());
   app.use(auditRouter());
+  app.use(reviewRouter());
   app.use(datasetsRouter(config));
+  app.use(modelsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);
