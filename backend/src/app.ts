@@ -45,7 +45,9 @@ function sameOriginOnly(appUrl: string): RequestHandler {
 export function createApp({ config, sessionPool, mailSink }: AppOptions): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  if (config.trustProxy) app.set('trust proxy', config.trustProxy);
+  // TRUST_PROXY=1 means one hop: Express reads the string "1" as an address, so pass a number.
+  if (config.trustProxy)
+    app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
 
   app.use(
     pinoHttp({
