@@ -12,6 +12,23 @@ export const paths = {
     path: '/datasets/:id',
     href: (id: string) => `/datasets/${encodeURIComponent(id)}`,
   },
+  models: {
+    path: '/models',
+    href: (datasetId?: string) =>
+      datasetId ? `/models?datasetId=${encodeURIComponent(datasetId)}` : '/models',
+  },
+  modelCompare: {
+    path: '/models/compare',
+    href: (ids: readonly string[]) => `/models/compare?ids=${ids.map(encodeURIComponent).join(',')}`,
+  },
+  modelRun: {
+    path: '/models/:id',
+    href: (id: string) => `/models/${encodeURIComponent(id)}`,
+  },
+  modelCard: {
+    path: '/models/:id/card',
+    href: (id: string) => `/models/${encodeURIComponent(id)}/card`,
+  },
   privacyPolicy: {
     path: '/privacy-policy',
     href: () => '/privacy-policy',
@@ -27,6 +44,14 @@ export const paths = {
   auditTrail: {
     path: '/audit',
     href: () => '/audit',
+  },
+  teams: {
+    path: '/teams',
+    href: () => '/teams',
+  },
+  teamBrief: {
+    path: '/teams/:id',
+    href: (id: string) => `/teams/${encodeURIComponent(id)}`,
   },
   signIn: {
     path: '/auth/login',
