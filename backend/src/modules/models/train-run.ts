@@ -119,7 +119,7 @@ export async function trainClaimedRun(run: ModelRunRecord): Promise<void> {
     if (abort.signal.aborted) {
       await finishModelRun(runId, { status: 'cancelled' });
     } else {
-      logger.warn({ err: error, runId }, 'model run failed');
+      logger.info({ err: error, runId }, 'model run failed');
       await finishModelRun(runId, { status: 'failed', error: failureMessage(error) });
     }
   } finally {
