@@ -51,6 +51,25 @@ export async function findDatasetForModelling(id: string): Promise<DatasetForMod
   };
 }
 
+// The columns read to start a run, kept for the worker of this process so that it need not read a
+// large dataset a second time; one entry, taken once, checked against the dataset's version.
+let recent: { datasetId: string; version: string | null; input: TrainingInput } | null = null;
+
 export async function loadTrainingInput(datasetId: string): Promise<TrainingInput> {
   return loadDatasetColumns(datasetId);
+}
+
+export function keepTrainingInput(datasetId: string, version: string | null, input: TrainingInput): void {
+  recent = { datasetId, version, input };
+}
+
+/** The columns for a run: those kept when it was queued if they are still current, else read again. */
+export async function trainingInputFor(datasetId: string, version: string | null): Promise<TrainingInput> {
+  const kept = recent;
+  if (kept && kept.datasetId === datasetId) {
+    recent = null;
+    const dataset = await findDatasetForModelling(datasetId);
+    if (dataset && dataset.version === version && kept.version === version) return kept.input;
+  }
+  return loadTrainingInput(datasetId);
 }

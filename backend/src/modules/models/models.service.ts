@@ -8,11 +8,11 @@ import type {
   ModelRunSummary,
 } from '../../../../shared/models';
 import { queueMail } from '../../jobs/mail.job';
-import { queueModelRun } from '../../jobs/model-run.job';
+import { queueModelRun, wakeModelRunWorker } from '../../jobs/model-run.job';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import type { SessionUser } from '../auth/session-types';
 import { currentPolicy, onPolicyChange } from '../policy/policy.service';
-import { findDatasetForModelling, loadTrainingInput } from './dataset-input';
+import { findDatasetForModelling, keepTrainingInput, loadTrainingInput } from './dataset-input';
 import { blockedReason, selectFeatures } from './feature-rules';
 import {
   findModelRun,
@@ -133,6 +133,8 @@ export async function createModelRun(user: SessionUser, body: ModelRunRequest): 
     }),
     queueModelRun,
   );
+  keepTrainingInput(dataset.id, dataset.version, input);
+  wakeModelRunWorker();
   const notices: string[] = [];
   if (raised) {
     notices.push(
