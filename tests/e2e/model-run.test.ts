@@ -1,6 +1,7 @@
 import type { BrowserContext } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seedDemoDataset } from '../../backend/src/demo/seed-demo-dataset';
+import { approveDataset } from '../backend/models/model-data';
 import { openBrowser, screenshot, signInWithForm } from '../helpers/browser';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../helpers/test-coppice';
 
@@ -11,6 +12,7 @@ beforeAll(async () => {
   coppice = await startTestCoppice();
   // The invented demo export, uploaded and mapped the way the demo seeds it.
   datasetId = (await seedDemoDataset(coppice.config)) as string;
+  await approveDataset(await coppice.signIn(ACCOUNTS.privacy), datasetId);
   browser = await openBrowser();
 });
 afterAll(async () => {

@@ -33,9 +33,25 @@ export const paths = {
     path: '/privacy-policy',
     href: () => '/privacy-policy',
   },
+  reviewQueue: {
+    path: '/review',
+    href: () => '/review',
+  },
+  datasetReview: {
+    path: '/review/datasets/:id',
+    href: (id: string) => `/review/datasets/${encodeURIComponent(id)}`,
+  },
   auditTrail: {
     path: '/audit',
     href: () => '/audit',
+  },
+  teams: {
+    path: '/teams',
+    href: () => '/teams',
+  },
+  teamBrief: {
+    path: '/teams/:id',
+    href: (id: string) => `/teams/${encodeURIComponent(id)}`,
   },
   signIn: {
     path: '/auth/login',

@@ -1,5 +1,6 @@
 import { createHash } from 'node:crypto';
 import { findDataset, loadDatasetColumns } from '../datasets/datasets.repository';
+import { latestProxyDecisions } from '../review/review.repository';
 import type { ProfiledColumn } from './feature-rules';
 
 /** A mapped dataset as the engine needs it (the datasets module's engine columns). */
@@ -19,20 +20,13 @@ export type TrainingInput = {
 export type DatasetForModelling = {
   id: string;
   name: string;
-  approved: boolean;
   /** the state of the dataset the run trains on: a digest of its mapping, which changes with it */
   version: string | null;
   dataWindow: { start: string; end: string } | null;
   profile: ProfiledColumn[];
+  /** allowed columns the privacy officer blocked for this dataset as proxies: column → why */
+  blockedProxies: Record<string, string>;
 };
-
-/**
- * Until the privacy officer's dataset approval is stored (DatasetStatus gains 'approved'), a
- * mapped dataset is taken as approved; an unmapped one never is.
- */
-function isApproved(status: string): boolean {
-  return status === 'approved' || status === 'mapped';
-}
 
 export async function findDatasetForModelling(id: string): Promise<DatasetForModelling | null> {
   const dataset = await findDataset(id);
@@ -41,13 +35,17 @@ export async function findDatasetForModelling(id: string): Promise<DatasetForMod
   return {
     id: dataset.id,
     name: dataset.name,
-    approved: isApproved(dataset.status),
     version: dataset.mapping
       ? createHash('sha256').update(JSON.stringify(dataset.mapping)).digest('hex').slice(0, 16)
       : null,
     dataWindow:
       outcome?.kind === 'exit-dates' ? { start: outcome.windowStart, end: outcome.windowEnd } : null,
     profile: dataset.columns,
+    blockedProxies: Object.fromEntries(
+      (await latestProxyDecisions(id))
+        .filter((d) => d.decision === 'block')
+        .map((d) => [d.feature, `blocked by the privacy officer as a proxy of "${d.blockedField}"`]),
+    ),
   };
 }
 
