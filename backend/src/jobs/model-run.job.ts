@@ -31,6 +31,13 @@ export async function queueModelRun(runId: string, manager?: EntityManager): Pro
   );
 }
 
+const localWorker: { boss: PgBoss; id: string } | null = null;
+
+/** Wakes this process's worker (if it runs one) so a new run starts without waiting for its next poll. */
+export function wakeModelRunWorker(): void {
+  if (localWorker) localWorker.boss.notifyWorker(localWorker.id);
+}
+
 /** One training at a time per worker: the engine takes a core, and a machine has few. */
 export async function registerModelRunWorker(
   b: PgBoss,

@@ -70,8 +70,13 @@ export async function insertModelRun(
 }
 
 export async function findModelRun(id: string): Promise<ModelRunRecord | null> {
-  const run = await db().getRepository(ModelRun).findOneBy({ id });
-  return run ? toRecord(run) : null;
+  const run = await db()
+    .getRepository(ModelRun)
+    .createQueryBuilder('r')
+    .addSelect('r.result')
+    .where('r.id = :id', { id })
+    .getOne();
+  return run ? toRecord({ ...run, result: run.result ?? null } as ModelRun) : null;
 }
 
 /** Runs newest first, without their results (list pages need the headline only). */
