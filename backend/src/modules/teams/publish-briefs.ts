@@ -31,7 +31,7 @@ export function briefsReadyMail(appUrl: string): { subject: string; text: string
  */
 export async function computePublication({ publicationId, appUrl }: BriefsJob): Promise<void> {
   const publication = await findPublication(publicationId);
-  if (!publication || publication.status !== 'computing') return;
+  if (publication?.status !== 'computing') return;
   try {
     const sources = briefSources();
     const run = await sources.loadRun(publication.modelRunId);

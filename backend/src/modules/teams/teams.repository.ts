@@ -109,7 +109,7 @@ export async function storeBriefs(
       .setLock('pessimistic_write')
       .where('p.id = :id', { id: publicationId })
       .getOne();
-    if (!publication || publication.status !== 'computing') return { stored: false, replaced: [] };
+    if (publication?.status !== 'computing') return { stored: false, replaced: [] };
     const older = await repo
       .createQueryBuilder('p')
       .setLock('pessimistic_write')
