@@ -41,4 +41,11 @@ export const AUDIT_ACTION_LABELS: Record<string, string> = {
   'auth.sign_out': 'Signed out',
   'policy.change': 'Changed the privacy policy',
   'audit.export': 'Exported the audit trail',
+  'dataset.uploaded': 'Uploaded a dataset',
+  'dataset.mapped': 'Mapped a dataset',
+  'dataset.deleted': 'Deleted a dataset',
+  'dataset.approved': 'Approved a dataset for modelling',
+  'dataset.sent_back': 'Sent a dataset back',
+  'dataset.proxy_blocked': 'Blocked a proxy field',
+  'dataset.proxy_accepted': 'Accepted a proxy field',
 };

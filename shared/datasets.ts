@@ -4,10 +4,14 @@ import { z } from 'zod';
 export const columnTypeSchema = z.enum(['number', 'category', 'date', 'yes-no', 'identifier', 'free-text']);
 export type ColumnType = z.infer<typeof columnTypeSchema>;
 
-const columnName = z.string().trim().min(1, 'Choose a column');
+const columnName = z
+  .string()
+  .trim()
+  .min(1, 'Choose a column')
+  .max(200, 'Column names are at most 200 characters');
 const isoDate = z.iso.date('Use a date in the form YYYY-MM-DD');
 
-export const exitDatesOutcomeSchema = z.object({
+export const exitDatesOutcomeSchema = z.strictObject({
   kind: z.literal('exit-dates'),
   startDate: columnName,
   exitDate: columnName,
@@ -17,7 +21,7 @@ export const exitDatesOutcomeSchema = z.object({
   windowEnd: isoDate,
 });
 
-export const flagOutcomeSchema = z.object({
+export const flagOutcomeSchema = z.strictObject({
   kind: z.literal('flag'),
   column: columnName,
   positiveValues: z.array(z.string().min(1)).min(1, 'Choose at least one value that means the person left'),
@@ -28,14 +32,15 @@ export type OutcomeDefinition = z.infer<typeof outcomeSchema>;
 
 /** Body of `PUT /api/datasets/:id/mapping`; column names exactly as in the file's header row. */
 export const datasetMappingSchema = z
-  .object({
+  // Unknown keys (and keys like __proto__) are refused, not silently dropped.
+  .strictObject({
     employeeId: columnName,
     team: columnName,
     department: columnName.optional(),
     managerEmail: columnName.optional(),
     managerId: columnName.optional(),
     outcome: outcomeSchema,
-    excluded: z.array(z.string()).default([]),
+    excluded: z.array(z.string().max(200)).max(1000).default([]),
     /** how to read dates like 03/04/2025 where the file itself cannot tell */
     dateOrder: z.enum(['dmy', 'mdy']).optional(),
   })
@@ -75,6 +80,8 @@ export type ColumnProfile = {
   topCategories?: { value: string; count: number }[];
   /** dates only: how day and month are ordered; 'ambiguous' needs `dateOrder` in the mapping */
   dateOrder?: 'dmy' | 'mdy' | 'ambiguous' | 'not-needed';
+  /** how the column is kept: its values, keyed hashes of them, or not at all */
+  storage?: 'values' | 'keyed-hash' | 'not-stored';
   /** dropped before storage */
   directIdentifier?: { kind: DirectIdentifierKind; reason: string };
   /** suggested to the privacy officer as a blocked field */

@@ -22,8 +22,8 @@ const whole = (field: string, min: number, max: number) =>
     .min(min, `${field} must be at least ${min}`)
     .max(max, `${field} must be at most ${max}`);
 
-/** The privacy officer's settings: the body of `PUT /api/policy` without the reason. */
-export const policySettingsSchema = z.object({
+/** The privacy officer's settings: the body of `PUT /api/policy` without the reason; unknown keys are refused. */
+export const policySettingsSchema = z.strictObject({
   k: whole('k', POLICY_LIMITS.k.min, POLICY_LIMITS.k.max),
   blockedFields: z
     .array(

@@ -88,3 +88,52 @@ export const fairnessReportSchema = z.object({
   groups: z.array(fairnessGroupSchema),
 });
 export type FairnessReportView = z.infer<typeof fairnessReportSchema>;
+
+/**
+ * Where a dataset stands with the privacy officers:
+ * not-mapped → awaiting-review → approved (or sent-back, then awaiting-review again after a new
+ * mapping); approved → needs-review when the policy's k, blocked fields or proxy threshold change.
+ */
+export const approvalStateSchema = z.enum([
+  'not-mapped',
+  'awaiting-review',
+  'sent-back',
+  'approved',
+  'needs-review',
+]);
+export type ApprovalState = z.infer<typeof approvalStateSchema>;
+
+export const approvalDecisionSchema = z.object({
+  decision: z.enum(['approved', 'sent-back']),
+  comment: z.string().nullable(),
+  policyVersion: z.number().int(),
+  decidedBy: z.string(),
+  decidedAt: z.string(),
+});
+export type ApprovalDecisionView = z.infer<typeof approvalDecisionSchema>;
+
+/** `GET /api/datasets/:id/approval`. */
+export const approvalStatusSchema = z.object({
+  datasetId: z.string(),
+  state: approvalStateSchema,
+  /** plain-words reasons for the state (what changed, what is missing) */
+  reasons: z.array(z.string()),
+  currentPolicyVersion: z.number().int(),
+  latest: approvalDecisionSchema.nullable(),
+  history: z.array(approvalDecisionSchema),
+});
+export type ApprovalStatusView = z.infer<typeof approvalStatusSchema>;
+
+/** `GET /api/review-queue`: what waits for a privacy officer. */
+export const reviewQueueItemSchema = z.object({
+  kind: z.literal('dataset'),
+  id: z.string(),
+  name: z.string(),
+  rowCount: z.number().int(),
+  uploadedBy: z.string(),
+  mappedAt: z.string().nullable(),
+  state: approvalStateSchema,
+  reasons: z.array(z.string()),
+});
+export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
+export const reviewQueueSchema = z.array(reviewQueueItemSchema);

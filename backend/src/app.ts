@@ -16,7 +16,9 @@ import { authRouter } from './modules/auth/auth.routes';
 import { datasetsRouter } from './modules/datasets/datasets.routes';
 import { mailboxRouter } from './modules/dev/mailbox.routes';
 import { healthRouter } from './modules/health/health.routes';
+import { modelsRouter } from './modules/models/models.routes';
 import { policyRouter } from './modules/policy/policy.routes';
+import { reviewRouter } from './modules/review/review.routes';
 import { teamsRouter } from './modules/teams/teams.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
@@ -43,7 +45,9 @@ function sameOriginOnly(appUrl: string): RequestHandler {
 export function createApp({ config, sessionPool, mailSink }: AppOptions): express.Express {
   const app = express();
   app.disable('x-powered-by');
-  if (config.trustProxy) app.set('trust proxy', config.trustProxy);
+  // TRUST_PROXY=1 means one hop: Express reads the string "1" as an address, so pass a number.
+  if (config.trustProxy)
+    app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
 
   app.use(
     pinoHttp({
@@ -126,7 +130,9 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   // Feature routers, one line each.
   app.use(policyRouter());
   app.use(auditRouter());
+  app.use(reviewRouter());
   app.use(datasetsRouter(config));
+  app.use(modelsRouter(config));
   app.use(teamsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 

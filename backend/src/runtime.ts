@@ -35,16 +35,25 @@ export type StartOptions = {
 
 const MIGRATION_LOCK = 7_460_312;
 
-export async function runMigrations(dataSource: DataSource): Promise<void> {
+const SEED_LOCK = 7_460_313;
+
+/** Runs `work` while holding a PostgreSQL advisory lock, so that processes starting together take turns. */
+async function withAdvisoryLock(dataSource: DataSource, lock: number, work: () => Promise<void>) {
   const runner = dataSource.createQueryRunner();
   await runner.connect();
   try {
-    await runner.query('SELECT pg_advisory_lock($1)', [MIGRATION_LOCK]);
-    await dataSource.runMigrations({ transaction: 'each' });
+    await runner.query('SELECT pg_advisory_lock($1)', [lock]);
+    await work();
   } finally {
-    await runner.query('SELECT pg_advisory_unlock($1)', [MIGRATION_LOCK]).catch(() => {});
+    await runner.query('SELECT pg_advisory_unlock($1)', [lock]).catch(() => {});
     await runner.release();
   }
+}
+
+export async function runMigrations(dataSource: DataSource): Promise<void> {
+  await withAdvisoryLock(dataSource, MIGRATION_LOCK, async () => {
+    await dataSource.runMigrations({ transaction: 'each' });
+  });
 }
 
 /** Starts everything one Coppice process needs, in order, and returns a handle that stops it all. */
@@ -95,7 +104,7 @@ export async function startCoppice(config: Config, options: StartOptions = {}): 
     stops.push(stopBoss);
     if (config.runWorkers) await registerWorkers(boss());
 
-    if (seed) await seedDemo(config);
+    if (seed) await withAdvisoryLock(dataSource, SEED_LOCK, () => seedDemo(config));
 
     const sessionPool = new pg.Pool({
       connectionString: config.databaseUrl,

@@ -5,6 +5,7 @@ import { auditExportHref } from '../../frontend/src/features/audit/api/export-au
 import { AuditTable } from '../../frontend/src/features/audit/components/audit-table';
 import { FairnessTable } from '../../frontend/src/features/fairness/components/fairness-table';
 import { PolicyForm } from '../../frontend/src/features/policy/components/policy-form';
+import { ApprovalPanel } from '../../frontend/src/features/review/components/approval-panel';
 import { ProxyReportTable } from '../../frontend/src/features/review/components/proxy-report-table';
 import { ApiError } from '../../frontend/src/lib/api-client';
 import type { Policy } from '../../shared/policy';
@@ -239,5 +240,45 @@ describe('the fairness screen', () => {
     const yes = screen.getAllByRole('row').find((row) => row.textContent?.startsWith('Yes'))!;
     expect(yes.textContent).toContain('0.63');
     expect(yes.textContent).toContain('adverse impact indicated');
+  });
+});
+
+describe('the approval panel', () => {
+  const status = {
+    datasetId: 'd1',
+    state: 'needs-review' as const,
+    reasons: ['Approved under policy version 2; the policy is now version 3 (k changed from 5 to 7).'],
+    currentPolicyVersion: 3,
+    latest: null,
+    history: [
+      {
+        decision: 'approved' as const,
+        comment: 'Fine',
+        policyVersion: 2,
+        decidedBy: 'privacy@quillfern.example',
+        decidedAt: '2026-11-02T09:00:00.000Z',
+      },
+    ],
+  };
+
+  it('says why a dataset needs review again and under which policy it was approved', () => {
+    render(<ApprovalPanel status={status} />);
+    expect(screen.getByText('Needs review: the policy changed')).toBeTruthy();
+    expect(screen.getByText(/k changed from 5 to 7/)).toBeTruthy();
+    expect(screen.getByText(/under policy version 2: “Fine”/)).toBeTruthy();
+    expect(screen.queryByRole('button', { name: /Approve/ })).toBeNull();
+  });
+
+  it('sends back only with a comment, and approves under the current version', async () => {
+    const onDecide = vi.fn();
+    render(<ApprovalPanel status={status} onDecide={onDecide} />);
+    expect((screen.getByRole('button', { name: 'Send back' }) as HTMLButtonElement).disabled).toBe(true);
+    fireEvent.change(screen.getByLabelText('Comment (needed to send back)'), {
+      target: { value: 'Exclude marital status' },
+    });
+    await press('Send back');
+    expect(onDecide).toHaveBeenLastCalledWith({ decision: 'send-back', comment: 'Exclude marital status' });
+    await press('Approve for modelling under policy version 3');
+    expect(onDecide).toHaveBeenLastCalledWith({ decision: 'approve', comment: 'Exclude marital status' });
   });
 });

@@ -12,9 +12,34 @@ export const paths = {
     path: '/datasets/:id',
     href: (id: string) => `/datasets/${encodeURIComponent(id)}`,
   },
+  models: {
+    path: '/models',
+    href: (datasetId?: string) =>
+      datasetId ? `/models?datasetId=${encodeURIComponent(datasetId)}` : '/models',
+  },
+  modelCompare: {
+    path: '/models/compare',
+    href: (ids: readonly string[]) => `/models/compare?ids=${ids.map(encodeURIComponent).join(',')}`,
+  },
+  modelRun: {
+    path: '/models/:id',
+    href: (id: string) => `/models/${encodeURIComponent(id)}`,
+  },
+  modelCard: {
+    path: '/models/:id/card',
+    href: (id: string) => `/models/${encodeURIComponent(id)}/card`,
+  },
   privacyPolicy: {
     path: '/privacy-policy',
     href: () => '/privacy-policy',
+  },
+  reviewQueue: {
+    path: '/review',
+    href: () => '/review',
+  },
+  datasetReview: {
+    path: '/review/datasets/:id',
+    href: (id: string) => `/review/datasets/${encodeURIComponent(id)}`,
   },
   auditTrail: {
     path: '/audit',

@@ -4,14 +4,15 @@ import { describe, expect, it } from 'vitest';
 
 const run = promisify(execFile);
 
-describe('the workbook reader under tsx (how the server runs)', () => {
-  it('starts its worker and reads a workbook', async () => {
+describe('the upload readers under tsx (how the server runs)', () => {
+  it('start their workers and read a workbook', async () => {
     const script = `
       import { generateQuillfernExport } from './backend/src/demo/quillfern';
       import { quillfernXlsx } from './backend/src/demo/quillfern-xlsx';
-      import { parseUpload } from './backend/src/modules/datasets/parsing/parse-upload';
-      parseUpload(quillfernXlsx(generateQuillfernExport({ rows: 30, seed: 1 }))).then((parsed) => {
-        console.log(JSON.stringify({ format: parsed.format, rows: parsed.table.rowNumbers.length, sheet: parsed.sheetName }));
+      import { readUpload } from './backend/src/modules/datasets/run-intake';
+      const bytes = quillfernXlsx(generateQuillfernExport({ rows: 30, seed: 1 }));
+      readUpload({ bytes, secret: 's'.repeat(40) }, 0).then((read) => {
+        console.log(JSON.stringify({ format: read.format, rows: read.prepared.rowNumbers.length, sheet: read.sheetName }));
       });
     `;
     const { stdout } = await run('node_modules/.bin/tsx', ['--eval', script], {

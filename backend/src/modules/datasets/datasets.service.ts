@@ -6,6 +6,7 @@ import type {
 } from '../../../../shared/datasets';
 import type { Config } from '../../lib/config';
 import { notFound } from '../../lib/errors';
+import { logger } from '../../lib/logger';
 import type { SessionUser } from '../auth/session-types';
 import {
   deleteDataset as deleteStoredDataset,
@@ -18,8 +19,7 @@ import {
 import { deriveOutcome, type MappingProblem } from './derive-outcome';
 import type { IntakeLimits } from './parsing/build-table';
 import { IntakeError } from './parsing/intake-error';
-import { parseUpload } from './parsing/parse-upload';
-import { prepareForStorage } from './prepare-storage';
+import { readUpload } from './run-intake';
 
 type Actor = { id: string | null; email: string };
 
@@ -49,10 +49,17 @@ export async function uploadDataset(input: {
   config: Pick<Config, 'employeeIdSecret'>;
   limits?: Partial<IntakeLimits>;
 }): Promise<DatasetDetail> {
-  const parsed = await parseUpload(input.bytes, { sheet: input.sheet || undefined, limits: input.limits });
-  const prepared = prepareForStorage(parsed, input.config.employeeIdSecret);
+  const started = performance.now();
+  const parsed = await readUpload({
+    bytes: input.bytes,
+    sheet: input.sheet || undefined,
+    limits: input.limits,
+    secret: input.config.employeeIdSecret,
+  });
+  const { prepared } = parsed;
+  const preparedAt = performance.now();
   const actor = actorOf(input.user);
-  return insertDataset(
+  const dataset = await insertDataset(
     {
       name: datasetNameFrom(input.fileName, input.name),
       format: parsed.format,
@@ -70,11 +77,24 @@ export async function uploadDataset(input: {
       details: {
         format: parsed.format,
         rows: prepared.rowNumbers.length,
-        columns: parsed.profile.length,
+        columns: parsed.columnCount,
         dropped: prepared.dropped.map((d) => d.name),
       },
     }),
   );
+  logger.info(
+    {
+      datasetId: dataset.id,
+      rows: dataset.rowCount,
+      format: parsed.format,
+      ms: {
+        read: Math.round(preparedAt - started),
+        store: Math.round(performance.now() - preparedAt),
+      },
+    },
+    'dataset stored',
+  );
+  return dataset;
 }
 
 export const listDatasets = (): Promise<DatasetSummary[]> => listStoredDatasets();

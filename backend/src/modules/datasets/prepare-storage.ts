@@ -1,5 +1,6 @@
 import type { ColumnProfile } from '../../../../shared/datasets';
 import { hashEmployeeId } from './employee-id-hash';
+import { MANAGER_HEADER } from './parsing/flags';
 import type { ParsedUpload } from './parsing/parse-upload';
 import type { TypedColumn } from './parsing/type-columns';
 
@@ -28,7 +29,7 @@ function withoutValues(profile: ColumnProfile): ColumnProfile {
 /**
  * What may be stored of a parsed upload: direct identifiers and free text are dropped (their
  * profile keeps no values), identifier columns such as the employee ID are replaced by keyed
- * hashes, everything else is kept as typed values.
+ * hashes (except a manager e-mail column), everything else is kept as typed values.
  */
 export function prepareForStorage(parsed: ParsedUpload, secret: string): PreparedDataset {
   const columns: StoredColumn[] = [];
@@ -37,12 +38,13 @@ export function prepareForStorage(parsed: ParsedUpload, secret: string): Prepare
     const typed = parsed.table.columns[i];
     if (column.directIdentifier || column.type === 'free-text') {
       dropped.push({ name: column.name, reason: column.directIdentifier?.reason ?? FREE_TEXT_REASON });
-      return withoutValues(column);
+      return { ...withoutValues(column), storage: 'not-stored' as const };
     }
-    const values =
-      typed.type === 'identifier'
-        ? typed.values.map((value) => (value === null ? null : hashEmployeeId(secret, String(value))))
-        : typed.values;
+    // A manager e-mail column stays readable: it is how managers are matched to their teams.
+    const hashed = typed.type === 'identifier' && !MANAGER_HEADER.test(typed.name);
+    const values = hashed
+      ? typed.values.map((value) => (value === null ? null : hashEmployeeId(secret, String(value))))
+      : typed.values;
     columns.push({
       position: i,
       name: typed.name,
@@ -50,7 +52,7 @@ export function prepareForStorage(parsed: ParsedUpload, secret: string): Prepare
       dateOrder: typed.type === 'date' ? typed.dateOrder : null,
       values,
     });
-    return column;
+    return { ...column, storage: hashed ? ('keyed-hash' as const) : ('values' as const) };
   });
   return { columns, profile, dropped, rowNumbers: parsed.table.rowNumbers };
 }

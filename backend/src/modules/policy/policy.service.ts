@@ -69,9 +69,18 @@ function sameSettings(a: Policy, b: PolicyUpdate): boolean {
   );
 }
 
-/** Stores the next version, audits it and tells the listeners, all in one transaction. */
-export async function changePolicy(actor: SessionUser, update: PolicyUpdate): Promise<Policy> {
-  return db().transaction(async (manager) => {
+/**
+ * Stores the next version, audits it and tells the listeners, all in one transaction (the
+ * caller's, when it passes its manager).
+ */
+export async function changePolicy(
+  actor: SessionUser,
+  update: PolicyUpdate,
+  outer?: EntityManager,
+): Promise<Policy> {
+  const run = <T>(work: (manager: EntityManager) => Promise<T>) =>
+    outer ? work(outer) : db().transaction(work);
+  return run(async (manager) => {
     await lockPolicy(manager);
     const previous = await currentPolicy(manager);
     if (sameSettings(previous, update)) {

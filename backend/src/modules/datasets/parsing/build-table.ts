@@ -132,6 +132,10 @@ export function tableFromGrid(
       problems.push({ ...where, reason: 'blank header' });
       return;
     }
+    // Invisible controls and direction overrides would make a column show under a false name.
+    if (/[\p{Cc}\u200E\u200F\u202A-\u202E\u2066-\u2069]/u.test(name)) {
+      problems.push({ ...where, reason: 'invisible control or text-direction characters' });
+    }
     if (name.length > limits.maxHeaderLength) {
       problems.push({ ...where, reason: `header longer than ${limits.maxHeaderLength} characters` });
     }

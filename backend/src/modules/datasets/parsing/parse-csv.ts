@@ -1,6 +1,6 @@
-import { parse } from 'csv-parse/sync';
 import { type Cell, type IntakeLimits, type RawTable, tableFromGrid } from './build-table';
 import { createRowProblems, IntakeError } from './intake-error';
+import { scanCsv, UnclosedQuoteError } from './scan-csv';
 
 export type Delimiter = ',' | ';' | '\t';
 const CANDIDATES: Delimiter[] = [',', ';', '\t'];
@@ -49,29 +49,16 @@ export function parseCsv(text: string, limits: IntakeLimits, warnings: string[] 
   const delimiter = detectDelimiter(text);
   let records: string[][];
   try {
-    records = parse(text, {
-      delimiter,
-      relax_column_count: true,
-      relax_quotes: true,
-      skip_empty_lines: false,
-      bom: true,
-    }) as string[][];
+    records = scanCsv(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text, delimiter);
   } catch (error) {
-    const csvError = error as { code?: string; records?: number };
-    if (csvError.code === 'CSV_QUOTE_NOT_CLOSED') {
-      const row = (csvError.records ?? 0) + 1;
-      const reason = 'a quoted value starts here and its closing quote (") is missing';
-      throw new IntakeError(
-        'csv_unbalanced_quotes',
-        422,
-        `Row ${row} opens a quoted value that is never closed, so the rest of the file cannot be read. Fix the quote in that row (or re-export the file) and upload again.`,
-        { rows: [{ row, reason }], count: 1 },
-      );
-    }
+    if (!(error instanceof UnclosedQuoteError)) throw error;
+    const row = error.record;
+    const reason = 'a quoted value starts here and its closing quote (") is missing';
     throw new IntakeError(
-      'csv_unreadable',
+      'csv_unbalanced_quotes',
       422,
-      `The CSV file could not be read (${(error as Error).message}). Re-export it from the HR system and upload again.`,
+      `Row ${row} opens a quoted value that is never closed, so the rest of the file cannot be read. Fix the quote in that row (or re-export the file) and upload again.`,
+      { rows: [{ row, reason }], count: 1 },
     );
   }
 

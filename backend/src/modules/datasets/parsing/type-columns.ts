@@ -27,7 +27,9 @@ const ID_HEADER =
 const CODE_VALUE = /^[A-Za-z]{0,5}[-_/]?\d{2,}$/;
 
 export function isMissing(value: Cell): boolean {
-  return value === null || (typeof value === 'string' && MISSING.has(value.toLowerCase()));
+  return (
+    value === null || (typeof value === 'string' && value.length <= 4 && MISSING.has(value.toLowerCase()))
+  );
 }
 
 /** Numbers as exports write them: 1234.5, 1,234.5, or 1234,5 where values are separated by semicolons. */
@@ -55,6 +57,74 @@ function preview(value: Cell): string {
 
 type Problems = RowProblem[];
 
+/**
+ * A column as its distinct values and, per row, the index of its value (-1 = missing). Staff
+ * exports repeat values a lot, so every decision and conversion runs once per distinct value.
+ */
+type Dictionary = {
+  keys: Cell[];
+  /** 1 where the key is a number cell with a date format (an Excel serial) */
+  serial: Uint8Array;
+  counts: number[];
+  ids: Int32Array;
+  present: number;
+};
+
+function dictionary(cells: Cell[], mask: Uint8Array | null | undefined): Dictionary {
+  const plain = new Map<Cell, number>();
+  const serials = new Map<number, number>();
+  const keys: Cell[] = [];
+  const serialFlags: number[] = [];
+  const counts: number[] = [];
+  const ids = new Int32Array(cells.length);
+  let present = 0;
+  for (let i = 0; i < cells.length; i += 1) {
+    const value = cells[i];
+    if (isMissing(value)) {
+      ids[i] = -1;
+      continue;
+    }
+    present += 1;
+    const isSerial = typeof value === 'number' && mask?.[i] === 1;
+    const lookup = isSerial ? serials : plain;
+    let id = lookup.get(value as number);
+    if (id === undefined) {
+      id = keys.length;
+      keys.push(value);
+      serialFlags.push(isSerial ? 1 : 0);
+      counts.push(0);
+      lookup.set(value as number, id);
+    }
+    ids[i] = id;
+    counts[id] += 1;
+  }
+  return { keys, serial: Uint8Array.from(serialFlags), counts, ids, present };
+}
+
+function expand<T>(dict: Dictionary, converted: T[]): (T | null)[] {
+  const out = new Array<T | null>(dict.ids.length);
+  for (let i = 0; i < dict.ids.length; i += 1) {
+    const id = dict.ids[i];
+    out[i] = id < 0 ? null : converted[id];
+  }
+  return out;
+}
+
+/** Row problems for every row whose value is one of the `bad` keys. */
+function problemRows(
+  dict: Dictionary,
+  bad: Map<number, string>,
+  name: string,
+  rowNumbers: number[],
+  problems: Problems,
+): void {
+  if (bad.size === 0) return;
+  for (let i = 0; i < dict.ids.length; i += 1) {
+    const reason = bad.get(dict.ids[i]);
+    if (reason !== undefined) problems.push({ row: rowNumbers[i], column: name, reason });
+  }
+}
+
 function typeColumn(
   name: string,
   cells: Cell[],
@@ -63,128 +133,99 @@ function typeColumn(
   decimalComma: boolean,
   problems: Problems,
 ): TypedColumn {
-  const present: number[] = [];
-  for (let i = 0; i < cells.length; i += 1) if (!isMissing(cells[i])) present.push(i);
-  const n = present.length;
-  const toText = () => cells.map((value) => (isMissing(value) ? null : textOf(value)));
+  const dict = dictionary(cells, mask);
+  const { keys, counts, present: n } = dict;
   if (n === 0) return { name, type: 'category', values: cells.map(() => null) };
 
   // Dates: Excel serials with a date format, or text in a date form.
-  const parsed: (ParsedDateText | null)[] = new Array(cells.length).fill(null);
+  const parsedDates = keys.map((key, id) =>
+    dict.serial[id] ? null : typeof key === 'string' ? parseDateText(key) : null,
+  );
   let dateLike = 0;
-  for (const i of present) {
-    const value = cells[i];
-    if (typeof value === 'number' && mask?.[i]) {
-      dateLike += 1;
-    } else if (typeof value === 'string') {
-      parsed[i] = parseDateText(value);
-      if (parsed[i]) dateLike += 1;
-    }
-  }
+  keys.forEach((_, id) => {
+    if (dict.serial[id] || parsedDates[id]) dateLike += counts[id];
+  });
   if (dateLike >= 0.8 * n) {
-    const texts = parsed.filter((p): p is ParsedDateText => p !== null);
-    const order = decideDateOrder(texts);
-    const values: (string | null)[] = cells.map(() => null);
-    for (const i of present) {
-      const value = cells[i];
-      const p = parsed[i];
-      let iso: string | null = null;
-      if (typeof value === 'number' && mask?.[i]) {
-        iso = excelSerialToIso(value);
-        if (iso === null) {
-          problems.push({
-            row: rowNumbers[i],
-            column: name,
-            reason:
-              value === 60
-                ? 'Excel serial 60 is 29 Feb 1900, a day that never existed'
-                : `${value} is not a date`,
-          });
+    const order = decideDateOrder(parsedDates.filter((p): p is ParsedDateText => p !== null));
+    const bad = new Map<number, string>();
+    const iso = keys.map((key, id): string | null => {
+      const parsed = parsedDates[id];
+      if (dict.serial[id]) {
+        const date = excelSerialToIso(key as number);
+        if (date === null) {
+          bad.set(
+            id,
+            key === 60 ? 'Excel serial 60 is 29 Feb 1900, a day that never existed' : `${key} is not a date`,
+          );
         }
-      } else if (p?.kind === 'exact') {
-        iso = p.iso;
-        if (iso === null)
-          problems.push({
-            row: rowNumbers[i],
-            column: name,
-            reason: `"${preview(value)}" is not a real date`,
-          });
-      } else if (p?.kind === 'numeric') {
-        if (order === 'ambiguous') {
-          iso = String(value);
-        } else {
-          iso = resolveDateText(p, order === 'mdy' ? 'mdy' : 'dmy');
-          if (iso === null) {
-            const form = order === 'mdy' ? 'month-first' : 'day-first';
-            problems.push({
-              row: rowNumbers[i],
-              column: name,
-              reason: `"${preview(value)}" is not a real date in this column's ${form} form`,
-            });
-          }
-        }
-      } else {
-        problems.push({ row: rowNumbers[i], column: name, reason: `"${preview(value)}" is not a date` });
+        return date;
       }
-      values[i] = iso;
-    }
-    return { name, type: 'date', values, dateOrder: order };
+      if (parsed?.kind === 'exact') {
+        if (parsed.iso === null) bad.set(id, `"${preview(key)}" is not a real date`);
+        return parsed.iso;
+      }
+      if (parsed?.kind === 'numeric') {
+        if (order === 'ambiguous') return String(key);
+        const date = resolveDateText(parsed, order === 'mdy' ? 'mdy' : 'dmy');
+        if (date === null) {
+          const form = order === 'mdy' ? 'month-first' : 'day-first';
+          bad.set(id, `"${preview(key)}" is not a real date in this column's ${form} form`);
+        }
+        return date;
+      }
+      bad.set(id, `"${preview(key)}" is not a date`);
+      return null;
+    });
+    problemRows(dict, bad, name, rowNumbers, problems);
+    return { name, type: 'date', values: expand(dict, iso), dateOrder: order };
   }
 
-  const texts = toText();
-  const distinct = new Set<string>();
-  for (const i of present) distinct.add(texts[i]!.toLowerCase());
-
-  if ([...distinct].every((value) => YES_NO.has(value))) return { name, type: 'yes-no', values: texts };
+  const texts = keys.map(textOf);
+  const lower = texts.map((text) => text.toLowerCase());
+  if (lower.every((value) => YES_NO.has(value))) return { name, type: 'yes-no', values: expand(dict, texts) };
 
   const looksLikeId = ID_HEADER.test(name);
   if (!looksLikeId) {
-    const numbers: (number | null)[] = cells.map(() => null);
+    const numbers = keys.map((key) =>
+      typeof key === 'number' ? key : typeof key === 'string' ? parseNumber(key, decimalComma) : null,
+    );
     let numeric = 0;
-    const stray: number[] = [];
-    for (const i of present) {
-      const value = cells[i];
-      const number =
-        typeof value === 'number'
-          ? value
-          : typeof value === 'string'
-            ? parseNumber(value, decimalComma)
-            : null;
-      if (number !== null) {
-        numbers[i] = number;
-        numeric += 1;
-      } else if (!(typeof value === 'string' && MISSING_NUMBER.has(value.toLowerCase()))) {
-        stray.push(i);
+    let stray = 0;
+    const bad = new Map<number, string>();
+    keys.forEach((key, id) => {
+      if (numbers[id] !== null) numeric += counts[id];
+      else if (!MISSING_NUMBER.has(lower[id])) {
+        stray += counts[id];
+        bad.set(id, `"${preview(key)}" is not a number`);
       }
-    }
-    if (numeric > 0 && numeric >= 0.95 * n) {
-      for (const i of stray) {
-        problems.push({ row: rowNumbers[i], column: name, reason: `"${preview(cells[i])}" is not a number` });
-      }
-      return { name, type: 'number', values: numbers };
+    });
+    if (numeric >= 0.5 * n && stray <= 0.05 * n) {
+      problemRows(dict, bad, name, rowNumbers, problems);
+      return { name, type: 'number', values: expand(dict, numbers) };
     }
   }
 
-  const distinctShare = distinct.size / n;
+  const distinct = new Set(lower).size;
+  const distinctShare = distinct / n;
+  const values = expand(dict, texts);
   // An ID column stays an identifier even with repeats, so that the mapping can name the duplicated rows.
-  if (looksLikeId) return { name, type: 'identifier', values: texts };
+  if (looksLikeId) return { name, type: 'identifier', values };
   let codeLike = 0;
   let totalLength = 0;
   let words = 0;
-  for (const i of present) {
-    const text = texts[i]!;
-    if (CODE_VALUE.test(text)) codeLike += 1;
-    totalLength += text.length;
-    words += text.split(/\s+/).length;
-  }
+  texts.forEach((text, id) => {
+    if (CODE_VALUE.test(text)) codeLike += counts[id];
+    totalLength += text.length * counts[id];
+    words += text.split(/\s+/).length * counts[id];
+  });
   if (n >= 20 && distinctShare >= 0.95) {
     if (codeLike >= 0.9 * n || (totalLength / n <= 40 && words / n <= 4)) {
-      return { name, type: 'identifier', values: texts };
+      return { name, type: 'identifier', values };
     }
-    return { name, type: 'free-text', values: texts };
+    return { name, type: 'free-text', values };
   }
-  if (distinct.size <= 50 || distinctShare <= 0.2) return { name, type: 'category', values: texts };
-  return { name, type: 'free-text', values: texts };
+  if (distinct <= 50 || distinctShare <= 0.2) return { name, type: 'category', values };
+  return { name, type: 'free-text', values };
 }
 
 /**

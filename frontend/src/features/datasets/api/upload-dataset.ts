@@ -13,12 +13,14 @@ export type UploadPhase = 'idle' | 'uploading' | 'checking' | 'done';
  */
 export function uploadDataset(
   file: File,
+  sheet: string,
   onProgress: (sent: number) => void,
   onUploaded: () => void,
 ): Promise<DatasetUploadResponse> {
   return new Promise((resolve, reject) => {
     const form = new FormData();
     form.append('file', file);
+    if (sheet.trim() !== '') form.append('sheet', sheet.trim());
     const xhr = new XMLHttpRequest();
     xhr.open('POST', '/api/datasets');
     xhr.setRequestHeader('Accept', 'application/json');
@@ -69,10 +71,10 @@ export function useUploadDataset() {
   const [phase, setPhase] = useState<UploadPhase>('idle');
   const [progress, setProgress] = useState(0);
   const mutation = useMutation({
-    mutationFn: (file: File) => {
+    mutationFn: ({ file, sheet = '' }: { file: File; sheet?: string }) => {
       setPhase('uploading');
       setProgress(0);
-      return uploadDataset(file, setProgress, () => setPhase('checking'));
+      return uploadDataset(file, sheet, setProgress, () => setPhase('checking'));
     },
     onSuccess: () => {
       setPhase('done');

@@ -51,7 +51,8 @@ export function MappingForm({ dataset, canEdit }: MappingFormProps) {
 
   const mappingKey = useDebounced(JSON.stringify(completeMapping(values)), 400);
   const mapping = useMemo(() => JSON.parse(mappingKey) as DatasetMapping | null, [mappingKey]);
-  const preview = useMappingPreview(dataset.id, mapping);
+  // Only analysts may ask for a preview; others see the counts saved with the mapping.
+  const preview = useMappingPreview(dataset.id, canEdit ? mapping : null);
 
   const used = new Set(
     [values.employeeId, values.team, values.department, values.managerEmail].concat(
@@ -177,14 +178,22 @@ export function MappingForm({ dataset, canEdit }: MappingFormProps) {
 
         <section aria-label="Outcome preview" className="lg:col-span-2">
           <h3 className="mb-2 text-base font-semibold text-slate-900">Preview</h3>
-          {!mapping && (
+          {!canEdit &&
+            (dataset.preview ? (
+              <OutcomePreviewPanel preview={dataset.preview} />
+            ) : (
+              <p className="text-sm text-slate-600">Not mapped yet.</p>
+            ))}
+          {canEdit && !mapping && (
             <p className="text-sm text-slate-600">Complete the mapping to see the outcome counts.</p>
           )}
-          {mapping && preview.isFetching && !preview.data && <ProgressBar label="Counting" />}
-          {mapping && preview.isError && (
+          {canEdit && mapping && preview.isFetching && !preview.data && <ProgressBar label="Counting" />}
+          {canEdit && mapping && preview.isError && (
             <IntakeProblems error={preview.error} title="This mapping cannot be used" />
           )}
-          {mapping && preview.data && !preview.isError && <OutcomePreviewPanel preview={preview.data} />}
+          {canEdit && mapping && preview.data && !preview.isError && (
+            <OutcomePreviewPanel preview={preview.data} />
+          )}
         </section>
 
         {canEdit && (

@@ -88,7 +88,7 @@ export function ProfileTable({ columns, dropped }: ProfileTableProps) {
                   protected: {c.protectedCharacteristic.characteristic} (suggested to block)
                 </span>
               )}
-              {c.type === 'identifier' && !droppedSet.has(c.name) && (
+              {c.storage === 'keyed-hash' && (
                 <span className="rounded bg-moss-100 px-1.5 py-0.5 text-xs text-moss-900">
                   stored as keyed hash
                 </span>

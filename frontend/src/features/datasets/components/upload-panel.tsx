@@ -16,12 +16,14 @@ export function UploadPanel({ onUploaded }: UploadPanelProps) {
   const input = useRef<HTMLInputElement>(null);
   const [file, setFile] = useState<File | null>(null);
   const [dragging, setDragging] = useState(false);
+  const [sheet, setSheet] = useState('');
+  const sheetId = useId();
   const upload = useUploadDataset();
 
   function start(chosen: File | undefined) {
     if (!chosen) return;
     setFile(chosen);
-    upload.mutate(chosen, { onSuccess: onUploaded });
+    upload.mutate({ file: chosen, sheet }, { onSuccess: onUploaded });
   }
 
   function onDrop(event: DragEvent<HTMLDivElement>) {
@@ -71,6 +73,18 @@ export function UploadPanel({ onUploaded }: UploadPanelProps) {
           and national IDs are dropped before anything is stored; employee IDs are replaced by a keyed hash.
         </p>
       </section>
+      <div className="mt-3 max-w-sm">
+        <label htmlFor={sheetId} className="block text-sm font-medium text-slate-800">
+          Sheet (workbooks only, optional)
+        </label>
+        <p className="text-xs text-slate-500">By default the first sheet with data is read.</p>
+        <input
+          id={sheetId}
+          value={sheet}
+          onChange={(event) => setSheet(event.target.value)}
+          className="mt-1 block w-full rounded-md border border-slate-300 bg-white px-3 py-2 text-sm"
+        />
+      </div>
       <div className="mt-4 space-y-3" aria-live="polite">
         {upload.isPending && upload.phase === 'uploading' && (
           <ProgressBar value={upload.progress} label={`Uploading ${file?.name ?? 'the file'}`} />

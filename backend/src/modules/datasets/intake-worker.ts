@@ -1,0 +1,38 @@
+// Worker thread entry: parses, profiles and prepares one upload away from the server's event loop.
+import { parentPort, workerData } from 'node:worker_threads';
+import type { IntakeLimits } from './parsing/build-table';
+import { IntakeError } from './parsing/intake-error';
+import { parseUpload } from './parsing/parse-upload';
+import { prepareForStorage } from './prepare-storage';
+
+type Job = { bytes: Uint8Array; sheet?: string; limits?: Partial<IntakeLimits>; secret: string };
+
+async function run(job: Job) {
+  try {
+    const parsed = await parseUpload(job.bytes, { sheet: job.sheet, limits: job.limits });
+    const prepared = prepareForStorage(parsed, job.secret);
+    parentPort?.postMessage({
+      ok: true,
+      format: parsed.format,
+      warnings: parsed.warnings,
+      sheetName: parsed.sheetName,
+      sheetNames: parsed.sheetNames,
+      columnCount: parsed.profile.length,
+      prepared,
+    });
+  } catch (error) {
+    if (error instanceof IntakeError) {
+      parentPort?.postMessage({
+        ok: false,
+        code: error.code,
+        status: error.status,
+        message: error.message,
+        details: error.details,
+      });
+    } else {
+      parentPort?.postMessage({ ok: false, unexpected: String((error as Error)?.stack ?? error) });
+    }
+  }
+}
+
+void run(workerData as Job);
