@@ -14,7 +14,7 @@ beforeAll(async () => {
   const analyst = await coppice.signIn(ACCOUNTS.analyst);
   const privacy = await coppice.signIn(ACCOUNTS.privacy);
   const demo = await useDemoRuns(analyst, { rows: 400 });
-  const run = demo.requestedRun();
+  const run = await demo.requestedRun();
   expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
   expect((await waitForPublication(privacy, run)).status).toBe('published');
   browser = await openBrowser();
