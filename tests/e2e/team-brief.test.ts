@@ -8,21 +8,33 @@ import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../helpers/test-co
 
 let coppice: TestCoppice;
 let browser: BrowserContext;
+let privacy: Awaited<ReturnType<TestCoppice['signIn']>>;
+let run: string;
 
 beforeAll(async () => {
   coppice = await startTestCoppice();
   const analyst = await coppice.signIn(ACCOUNTS.analyst);
-  const privacy = await coppice.signIn(ACCOUNTS.privacy);
+  privacy = await coppice.signIn(ACCOUNTS.privacy);
   const demo = await useDemoRuns(analyst, { rows: 400 });
-  const run = demo.requestedRun();
-  expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
-  expect((await waitForPublication(privacy, run)).status).toBe('published');
+  run = await demo.requestedRun();
   browser = await openBrowser();
 }, 90_000);
 
 afterAll(async () => {
   await browser?.close();
   await coppice?.stop();
+});
+
+describe('a privacy officer publishes the briefs in the browser', () => {
+  it('publishes a requested model run from its page', async () => {
+    const page = await browser.newPage();
+    await signInWithForm(page, coppice.url, ACCOUNTS.privacy, undefined, `/models/${run}`);
+    await page.getByRole('button', { name: 'Publish team briefs' }).click();
+    await page.getByText('Published to the managers').waitFor({ timeout: 30_000 });
+    expect((await waitForPublication(privacy, run)).status).toBe('published');
+    await page.close();
+    await browser.clearCookies();
+  }, 60_000);
 });
 
 describe('a manager reads a team brief in the browser', () => {

@@ -1,19 +1,24 @@
-import { randomUUID } from 'node:crypto';
 import type request from 'supertest';
 import { expect } from 'vitest';
 import { generateQuillfernExport, QUILLFERN_MAPPING } from '../../../backend/src/demo/quillfern';
 import { quillfernCsv } from '../../../backend/src/demo/quillfern-csv';
-import { fitTree } from '../../../backend/src/modeling/fit';
-import { buildTable, type ColumnInput } from '../../../backend/src/modeling/table';
 import { loadDatasetColumns } from '../../../backend/src/modules/datasets/datasets.repository';
-import { type PublishableRun, setBriefSources } from '../../../backend/src/modules/teams/brief-sources';
 import type { PublicationResponse } from '../../../shared/briefs';
+import type { ModelRunDetail } from '../../../shared/models';
 import { demoAction } from './demo-inputs';
+
+async function waitForRun(agent: request.Agent, id: string): Promise<ModelRunDetail> {
+  for (let i = 0; i < 600; i++) {
+    const res = await agent.get(`/api/models/${id}`);
+    if (!['queued', 'running'].includes(res.body.status)) return res.body;
+    await new Promise((r) => setTimeout(r, 150));
+  }
+  throw new Error(`model run ${id} did not finish`);
+}
 
 /**
  * The invented demo export uploaded and mapped by the analyst through the API, and model runs
- * trained on it by the engine (protected characteristics left out). Until model runs are in this
- * build, tests put those runs where publishing looks for them.
+ * trained by the model runs job, each driver with a suggested action, publication requested.
  */
 export async function useDemoRuns(analyst: request.Agent, options: { rows?: number } = {}) {
   const data = generateQuillfernExport({ rows: options.rows ?? 600 });
@@ -24,24 +29,10 @@ export async function useDemoRuns(analyst: request.Agent, options: { rows?: numb
   const datasetId = upload.body.id as string;
   expect((await analyst.put(`/api/datasets/${datasetId}/mapping`).send(QUILLFERN_MAPPING)).status).toBe(200);
   const columns = await loadDatasetColumns(datasetId);
-  const allowed = columns.features.filter((f) => f.protectedCharacteristic === null);
-  const table = buildTable(allowed as ColumnInput[]);
-  const { tree } = fitTree(table, columns.labels, { maxDepth: 4, minLeaf: 25, k: 5 });
-  const runs = new Map<string, PublishableRun>();
-  const states: { runId: string; state: string }[] = [];
-  setBriefSources({
-    loadRun: async (id) => runs.get(id) ?? null,
-    setPublicationState: async (runId, state) => {
-      states.push({ runId, state });
-      const run = runs.get(runId);
-      if (run) run.publicationState = state;
-    },
-  });
   const col = (name: string) => data.header.indexOf(name as never);
   return {
     datasetId,
     columns,
-    states,
     /** what identifies a person: staff numbers, names, personal e-mails and the stored hashes */
     identifiers: [
       ...data.rows.flatMap((row) => [
@@ -52,18 +43,31 @@ export async function useDemoRuns(analyst: request.Agent, options: { rows?: numb
       ...columns.employeeKeys,
     ],
     protectedFields: columns.features.filter((f) => f.protectedCharacteristic !== null).map((f) => f.name),
-    /** a run of the demo dataset whose publication the analyst has requested (or in `state`) */
-    requestedRun(state = 'requested'): string {
-      const id = randomUUID();
-      runs.set(id, {
-        id,
-        datasetId,
-        tree,
-        drivers: allowed.map((f) => ({ feature: f.name, suggestedAction: demoAction(f.name) })),
-        publicationState: state,
-        policyVersion: 1,
-      });
-      return id;
+    /** the file's columns holding protected characteristics, as a privacy officer would block them */
+    protectedColumns: [
+      ...new Set(
+        columns.features
+          .filter((f) => f.protectedCharacteristic !== null)
+          .map((f) => f.derivedFrom ?? f.name),
+      ),
+    ],
+    /** trains a run of the demo dataset; unless told otherwise, the analyst then asks to publish it */
+    async requestedRun(request = true): Promise<string> {
+      const created = await analyst
+        .post('/api/models')
+        .send({ datasetId, folds: 2, pruning: 'none', maxDepth: 4, minLeaf: 25 });
+      expect(created.status).toBe(202);
+      const run = await waitForRun(analyst, created.body.id);
+      expect(run.status).toBe('done');
+      for (const driver of run.result!.drivers) {
+        const res = await analyst
+          .put(`/api/models/${run.id}/drivers/${encodeURIComponent(driver.feature)}/action`)
+          .send({ text: demoAction(driver.feature) });
+        expect(res.status).toBe(200);
+      }
+      if (request)
+        expect((await analyst.post(`/api/models/${run.id}/publication-request`).send({})).status).toBe(200);
+      return run.id;
     },
   };
 }

@@ -33,7 +33,7 @@ describe('publishing while the mail server is down', () => {
     const demo = await useDemoRuns(analyst, { rows: 300 });
     await coppice.local.mailSink!.stop();
 
-    const run = demo.requestedRun();
+    const run = await demo.requestedRun();
     expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
     const publication = await waitForPublication(privacy, run);
     expect(publication.status).toBe('published');

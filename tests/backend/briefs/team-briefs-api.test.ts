@@ -27,6 +27,7 @@ async function waitForPublication(runId: string, status = 'published'): Promise<
 }
 
 let firstRun: string;
+let blocked: string[];
 let firstPublication: PublicationResponse;
 
 beforeAll(async () => {
@@ -34,9 +35,20 @@ beforeAll(async () => {
   privacy = await coppice.signIn(ACCOUNTS.privacy);
   analyst = await coppice.signIn(ACCOUNTS.analyst);
   demo = await useDemoRuns(analyst);
+  blocked = demo.protectedColumns;
+  const policy = await privacy
+    .put('/api/policy')
+    .send({
+      k: 5,
+      blockedFields: blocked,
+      proxyThreshold: 0.5,
+      retentionDays: 365,
+      reason: 'Block protected fields',
+    });
+  expect(policy.status).toBe(200);
   north = await coppice.signIn(ACCOUNTS.managerNorth);
   south = await coppice.signIn(ACCOUNTS.managerSouth);
-  firstRun = demo.requestedRun();
+  firstRun = await demo.requestedRun();
   const res = await privacy.post(`/api/models/${firstRun}/publish`).send({ comment: 'First quarter' });
   expect(res.status).toBe(202);
   expect(res.body).toMatchObject({ status: 'computing', modelRunId: firstRun });
@@ -56,7 +68,7 @@ describe('POST /api/models/:id/publish', () => {
       [firstPublication.id],
     );
     expect(Number(stored[0]!.n)).toBe(teams.size);
-    expect(demo.states).toContainEqual({ runId: firstRun, state: 'published' });
+    expect((await analyst.get(`/api/models/${firstRun}`)).body.publicationState).toBe('published');
     const audit = await coppice.sql('SELECT action FROM audit_events WHERE object_id = $1 ORDER BY id', [
       firstPublication.id,
     ]);
@@ -64,13 +76,13 @@ describe('POST /api/models/:id/publish', () => {
   });
 
   it('is for privacy officers only', async () => {
-    const run = demo.requestedRun();
+    const run = firstRun;
     expect((await analyst.post(`/api/models/${run}/publish`).send({})).status).toBe(403);
     expect((await north.post(`/api/models/${run}/publish`).send({})).status).toBe(403);
   });
 
   it('refuses a run whose publication was not requested, and an unknown run', async () => {
-    const run = demo.requestedRun('none');
+    const run = await demo.requestedRun(false);
     const res = await privacy.post(`/api/models/${run}/publish`).send({});
     expect(res.status).toBe(409);
     expect(res.body.error.message).toMatch(/request/);
@@ -244,7 +256,7 @@ describe('what managers receive', () => {
 describe('replacing and withdrawing', () => {
   it('replaces the older publication of the same dataset with a newer one', async () => {
     const oldTeam = ((await north.get('/api/teams')).body as TeamSummary[])[0]!;
-    const run = demo.requestedRun();
+    const run = await demo.requestedRun();
     expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
     await waitForPublication(run);
     const teams = (await analyst.get('/api/teams')).body as TeamSummary[];
@@ -253,6 +265,7 @@ describe('replacing and withdrawing', () => {
     expect((await analyst.get(`/api/teams/${oldTeam.id}/brief`)).status).toBe(404);
     const old = (await privacy.get(`/api/models/${firstRun}/publications`)).body as PublicationResponse[];
     expect(old[0]!.status).toBe('replaced');
+    expect((await analyst.get(`/api/models/${firstRun}`)).body.publicationState).toBe('withdrawn');
   });
 
   it('withdraws the briefs at once when k rises, and keeps the reason for the analyst', async () => {
@@ -263,7 +276,13 @@ describe('replacing and withdrawing', () => {
     )[0]!.model_run_id;
     const res = await privacy
       .put('/api/policy')
-      .send({ k: 6, blockedFields: [], proxyThreshold: 0.5, retentionDays: 365, reason: 'Stricter groups' });
+      .send({
+        k: 6,
+        blockedFields: blocked,
+        proxyThreshold: 0.5,
+        retentionDays: 365,
+        reason: 'Stricter groups',
+      });
     expect(res.status).toBe(200);
     expect((await analyst.get('/api/teams')).body).toEqual([]);
     expect((await north.get('/api/teams')).body).toEqual([]);
@@ -271,12 +290,15 @@ describe('replacing and withdrawing', () => {
       .body as PublicationResponse[];
     expect(publication).toMatchObject({ status: 'withdrawn' });
     expect(publication!.withdrawnReason).toMatch(/k rose from 5 to 6/);
+    const seenByAnalyst = (await analyst.get(`/api/models/${run}`)).body;
+    expect(seenByAnalyst.publicationState).toBe('withdrawn');
+    expect(seenByAnalyst.publicationComment).toMatch(/k rose from 5 to 6/);
     const left = await coppice.sql('SELECT count(*)::int AS n FROM team_briefs');
     expect(left[0]!.n).toBe(0);
   });
 
   it('withdraws the briefs when a field the model uses becomes blocked', async () => {
-    const run = demo.requestedRun();
+    const run = await demo.requestedRun();
     expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
     await waitForPublication(run);
     const used = (
@@ -286,7 +308,7 @@ describe('replacing and withdrawing', () => {
     )[0]!.features;
     const res = await privacy.put('/api/policy').send({
       k: 6,
-      blockedFields: [used[0]],
+      blockedFields: [...blocked, used[0]],
       proxyThreshold: 0.5,
       retentionDays: 365,
       reason: 'Block a field',
@@ -299,15 +321,17 @@ describe('replacing and withdrawing', () => {
     expect((await north.get('/api/teams')).body).toEqual([]);
   });
 
-  it('refuses to publish a run that splits on a blocked field, and removes every brief when the dataset is deleted', async () => {
-    const blockedRun = demo.requestedRun();
-    const refused = await privacy.post(`/api/models/${blockedRun}/publish`).send({});
-    expect(refused.status).toBe(409);
-    expect(refused.body.error.code).toBe('uses_blocked_fields');
+  it('removes every brief at once when the dataset is deleted', async () => {
     await privacy
       .put('/api/policy')
-      .send({ k: 6, blockedFields: [], proxyThreshold: 0.5, retentionDays: 365, reason: 'Unblock again' });
-    const run = demo.requestedRun();
+      .send({
+        k: 6,
+        blockedFields: blocked,
+        proxyThreshold: 0.5,
+        retentionDays: 365,
+        reason: 'Unblock again',
+      });
+    const run = await demo.requestedRun();
     expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
     await waitForPublication(run);
     expect(((await north.get('/api/teams')).body as TeamSummary[]).length).toBe(3);

@@ -1,6 +1,9 @@
+import type { EntityManager } from 'typeorm';
+import type { PublicationState } from '../../../../shared/models';
 import type { BriefColumns, BriefModel } from '../../analysis/team-briefs';
-import { AppError, notFound } from '../../lib/errors';
+import { conflict, notFound } from '../../lib/errors';
 import { findDataset, loadDatasetColumns } from '../datasets/datasets.repository';
+import { getModelRunForPublishing, setPublicationState } from '../models/models.repository';
 
 /** What publishing needs of a model run (from the model runs module). */
 export type PublishableRun = BriefModel & {
@@ -9,6 +12,8 @@ export type PublishableRun = BriefModel & {
   /** "requested" once the analyst asked the privacy officers to publish */
   publicationState: string;
   policyVersion: number;
+  /** made under an older privacy policy version: review before publishing */
+  needsReview?: boolean;
 };
 
 /** What publishing needs of a dataset: its columns for the engine and the outcome's window. */
@@ -17,8 +22,13 @@ export type PublishableColumns = BriefColumns & { window: { start: string; end: 
 export type BriefSources = {
   loadRun: (modelRunId: string) => Promise<PublishableRun | null>;
   loadColumns: (datasetId: string) => Promise<PublishableColumns>;
-  /** tells the model runs module that the run's briefs are out */
-  setPublicationState?: (modelRunId: string, state: string, comment?: string) => Promise<void>;
+  /** tells the model runs module that the run's briefs are out, or withdrawn and why */
+  setPublicationState?: (
+    modelRunId: string,
+    state: 'published' | 'withdrawn',
+    comment?: string,
+    manager?: EntityManager,
+  ) => Promise<void>;
 };
 
 /** The stored dataset's columns, with the window of its outcome mapping. */
@@ -33,20 +43,30 @@ export async function loadStoredColumns(datasetId: string): Promise<PublishableC
   };
 }
 
-const noModelRuns = async (): Promise<never> => {
-  throw new AppError(
-    'model_runs_unavailable',
-    503,
-    'Model runs are not available in this build yet, so nothing can be published.',
-  );
+/** A stored model run, as publishing needs it. */
+export async function loadStoredRun(modelRunId: string): Promise<PublishableRun | null> {
+  const run = await getModelRunForPublishing(modelRunId);
+  if (!run) return null;
+  if (!run.tree) throw conflict('This model run has no trained tree to publish.');
+  return {
+    id: run.id,
+    datasetId: run.datasetId,
+    publicationState: run.publicationState,
+    policyVersion: run.policyVersion,
+    needsReview: run.needsReview,
+    tree: run.tree,
+    drivers: run.drivers.map((d) => ({ feature: d.feature, suggestedAction: d.suggestedAction || null })),
+  };
+}
+
+let sources: BriefSources = {
+  loadRun: loadStoredRun,
+  loadColumns: loadStoredColumns,
+  setPublicationState: (id, state, comment, manager) =>
+    setPublicationState(id, state satisfies PublicationState, comment, manager),
 };
 
-let sources: BriefSources = { loadRun: noModelRuns, loadColumns: loadStoredColumns };
-
-/**
- * Where publishing reads model runs and dataset columns. Datasets come from their repository;
- * model runs are wired in by the model runs module (tests wire engine-trained runs meanwhile).
- */
+/** Where publishing reads model runs and dataset columns: their repositories, unless replaced. */
 export function setBriefSources(next: Partial<BriefSources>): void {
   sources = { ...sources, ...next };
 }

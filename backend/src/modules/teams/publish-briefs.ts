@@ -31,7 +31,7 @@ export function briefsReadyMail(appUrl: string): { subject: string; text: string
  */
 export async function computePublication({ publicationId, appUrl }: BriefsJob): Promise<void> {
   const publication = await findPublication(publicationId);
-  if (!publication || publication.status !== 'computing') return;
+  if (publication?.status !== 'computing') return;
   try {
     const sources = briefSources();
     const run = await sources.loadRun(publication.modelRunId);
@@ -53,11 +53,15 @@ export async function computePublication({ publicationId, appUrl }: BriefsJob): 
       const id = randomUUID();
       return { ...team, id, brief: { ...team.brief, team: { ...team.brief.team, id } } };
     });
-    const { stored } = await storeBriefs(publicationId, teams, publishedAt);
+    const { stored, replaced } = await storeBriefs(publicationId, teams, publishedAt);
     if (!stored) return;
-    await sources
-      .setPublicationState?.(publication.modelRunId, 'published')
-      .catch((error) => logger.warn({ err: error, publicationId }, 'could not mark the model run published'));
+    const mark = (runId: string, state: 'published' | 'withdrawn', comment?: string) =>
+      sources
+        .setPublicationState?.(runId, state, comment)
+        .catch((error) => logger.warn({ err: error, publicationId }, 'could not update the model run'));
+    for (const runId of replaced.filter((id) => id !== publication.modelRunId))
+      await mark(runId, 'withdrawn', 'Replaced by a newer publication of the same dataset.');
+    await mark(publication.modelRunId, 'published');
     const mail = briefsReadyMail(appUrl);
     for (const email of await managersOf(publicationId)) {
       await queueMail({ to: [email], ...mail }).catch((error) =>

@@ -109,7 +109,7 @@ export async function storeBriefs(
       .setLock('pessimistic_write')
       .where('p.id = :id', { id: publicationId })
       .getOne();
-    if (!publication || publication.status !== 'computing') return { stored: false, replaced: [] };
+    if (publication?.status !== 'computing') return { stored: false, replaced: [] };
     const older = await repo
       .createQueryBuilder('p')
       .setLock('pessimistic_write')
@@ -246,7 +246,18 @@ export async function listPublishedTeams(managerEmail?: string): Promise<TeamSum
   const query = db()
     .getRepository(TeamBriefRecord)
     .createQueryBuilder('t')
-    .innerJoinAndSelect('t.publication', 'p')
+    .innerJoin('t.publication', 'p')
+    // the list needs the summaries, not the briefs themselves
+    .select([
+      't.id',
+      't.name',
+      't.department',
+      't.withheld',
+      't.headcount',
+      't.summary',
+      'p.id',
+      'p.publishedAt',
+    ])
     .where(PUBLISHED)
     .orderBy('t.department', 'ASC', 'NULLS LAST')
     .addOrderBy('t.name', 'ASC');

@@ -45,6 +45,11 @@ export async function publishRun(
       { publicationState: run.publicationState },
     );
   }
+  if (run.needsReview) {
+    throw conflict(
+      'The privacy policy changed since this model run was trained; the analyst must review it (or train a new run) before it is published.',
+    );
+  }
   if (await findComputingPublication(run.id)) {
     throw conflict('The briefs of this model run are being computed already; wait for them to be published.');
   }
@@ -156,8 +161,11 @@ export function withdrawBriefsOnPolicyChange(): void {
             : null;
       if (reason) byReason.set(reason, [...(byReason.get(reason) ?? []), publication]);
     }
+    const { setPublicationState } = briefSources();
     for (const [reason, publications] of byReason) {
       await withdrawPublications(manager, publications, reason, null);
+      // In the same transaction: the analyst reads the reason on the model run.
+      for (const p of publications) await setPublicationState?.(p.modelRunId, 'withdrawn', reason, manager);
     }
   });
 }

@@ -1,10 +1,13 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { Link, useLocation, useParams } from 'react-router-dom';
 import { Card } from '../../components/card';
 import { ErrorNotice } from '../../components/error-notice';
 import { PageHeader } from '../../components/page-header';
 import { paths } from '../../config/paths';
+import { PublishBriefsPanel } from '../../features/briefs/components/publish-briefs-panel';
 import { useCancelModel } from '../../features/models/api/cancel-model';
 import { useModel } from '../../features/models/api/get-model';
+import { modelKeys } from '../../features/models/api/model-keys';
 import { useRequestPublication } from '../../features/models/api/request-publication';
 import { useSaveDriverAction } from '../../features/models/api/save-driver-action';
 import { useSendBack } from '../../features/models/api/send-back';
@@ -28,6 +31,7 @@ export function Component() {
   const saveAction = useSaveDriverAction();
   const request = useRequestPublication();
   const sendBack = useSendBack();
+  const queryClient = useQueryClient();
   const data = run.data;
   const result = data?.result;
   return (
@@ -102,6 +106,14 @@ export function Component() {
                   canSendBack={hasRole(me, 'privacy_officer')}
                   onRequest={(comment) => request.mutateAsync({ id, comment })}
                   onSendBack={(comment) => sendBack.mutateAsync({ id, comment })}
+                />
+              </Card>
+              <Card title="Team briefs">
+                <PublishBriefsPanel
+                  runId={id}
+                  publicationState={data.publicationState}
+                  canPublish={hasRole(me, 'privacy_officer')}
+                  onPublished={() => queryClient.invalidateQueries({ queryKey: modelKeys.all })}
                 />
               </Card>
             </>

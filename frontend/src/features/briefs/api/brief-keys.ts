@@ -3,4 +3,5 @@ export const briefKeys = {
   all: ['briefs'] as const,
   teams: () => [...briefKeys.all, 'teams'] as const,
   brief: (teamId: string) => [...briefKeys.all, 'brief', teamId] as const,
+  publications: (runId: string) => [...briefKeys.all, 'publications', runId] as const,
 };
