@@ -40,8 +40,10 @@ async function setPolicy(
   change: Partial<{ k: number; blockedFields: string[]; proxyThreshold: number; retentionDays: number }>,
   reason: string,
 ) {
-  const current = (await privacy.get('/api/policy')).body;
-  const res = await privacy.put('/api/policy').send({ ...current, ...change, reason });
+  const { k, blockedFields, proxyThreshold, retentionDays } = (await privacy.get('/api/policy')).body;
+  const res = await privacy
+    .put('/api/policy')
+    .send({ k, blockedFields, proxyThreshold, retentionDays, ...change, reason });
   expect(res.status).toBe(200);
   return res.body;
 }
