@@ -19,6 +19,7 @@ import { healthRouter } from './modules/health/health.routes';
 import { modelsRouter } from './modules/models/models.routes';
 import { policyRouter } from './modules/policy/policy.routes';
 import { reviewRouter } from './modules/review/review.routes';
+import { teamsRouter } from './modules/teams/teams.routes';
 
 export type AppOptions = { config: Config; sessionPool: pg.Pool; mailSink: boolean };
 
@@ -132,6 +133,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   app.use(reviewRouter());
   app.use(datasetsRouter(config));
   app.use(modelsRouter(config));
+  app.use(teamsRouter(config));
   if (mailSink && !config.production) app.use(mailboxRouter());
 
   app.use('/api', notFoundHandler);

@@ -15,7 +15,15 @@ export async function queueMail(mail: OutgoingMail): Promise<void> {
 }
 
 export async function registerMailWorker(b: PgBoss): Promise<void> {
-  await b.work<OutgoingMail>(MAIL_QUEUE, { pollingIntervalSeconds: 1 }, async (jobs) => {
-    for (const job of jobs) await deliverMail(job.data);
+  // A batch, so that a publication's many e-mails do not wait a polling interval each; a failed
+  // e-mail is failed on its own (and retried), the others of the batch complete.
+  await b.work<OutgoingMail>(MAIL_QUEUE, { pollingIntervalSeconds: 1, batchSize: 20 }, async (jobs) => {
+    for (const job of jobs) {
+      try {
+        await deliverMail(job.data);
+      } catch (error) {
+        await b.fail(MAIL_QUEUE, job.id, { message: error instanceof Error ? error.message : String(error) });
+      }
+    }
   });
 }

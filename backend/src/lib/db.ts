@@ -6,12 +6,15 @@ import { DatasetColumn } from '../entities/dataset-column.entity';
 import { ModelRun } from '../entities/model-run.entity';
 import { PolicyVersion } from '../entities/policy-version.entity';
 import { ProxyDecision } from '../entities/proxy-decision.entity';
+import { Publication } from '../entities/publication.entity';
+import { TeamBriefRecord } from '../entities/team-brief.entity';
 import { User } from '../entities/user.entity';
 import { Foundation1796150136015 } from '../migrations/1796150136015-foundation';
 import { PrivacyPolicy1796150959571 } from '../migrations/1796150959571-privacy-policy';
 import { Datasets1796151046358 } from '../migrations/1796151046358-datasets';
 import { DatasetReview1796152353022 } from '../migrations/1796152353022-dataset-review';
 import { ModelRuns1796152505403 } from '../migrations/1796152505403-model-runs';
+import { TeamBriefs1796152581702 } from '../migrations/1796152581702-team-briefs';
 
 /** Every entity and migration, listed (not globbed) so they load the same under tsx and vitest. */
 export const entities = [
@@ -23,6 +26,8 @@ export const entities = [
   DatasetApproval,
   ProxyDecision,
   ModelRun,
+  Publication,
+  TeamBriefRecord,
 ];
 export const migrations = [
   Foundation1796150136015,
@@ -30,6 +35,7 @@ export const migrations = [
   Datasets1796151046358,
   DatasetReview1796152353022,
   ModelRuns1796152505403,
+  TeamBriefs1796152581702,
 ];
 
 export function createDataSource(url: string): DataSource {

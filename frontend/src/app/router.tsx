@@ -8,9 +8,11 @@ import { DatasetReviewRoute } from './routes/dataset-review';
 import { DatasetsRoute } from './routes/datasets';
 import { HomeRoute } from './routes/home';
 import { ModelsRoute } from './routes/models';
+import { MyTeamsRoute } from './routes/my-teams';
 import { NotFoundRoute } from './routes/not-found';
 import { PrivacyPolicyRoute } from './routes/privacy-policy';
 import { ReviewQueueRoute } from './routes/review-queue';
+import { TeamBriefRoute } from './routes/team-brief';
 
 /** Feature screens add their route here, as children of the shell. */
 export const routes: RouteObject[] = [
@@ -29,6 +31,8 @@ export const routes: RouteObject[] = [
       { path: paths.auditTrail.path, element: <AuditTrailRoute /> },
       { path: paths.reviewQueue.path, element: <ReviewQueueRoute /> },
       { path: paths.datasetReview.path, element: <DatasetReviewRoute /> },
+      { path: paths.teams.path, element: <MyTeamsRoute /> },
+      { path: paths.teamBrief.path, element: <TeamBriefRoute /> },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

@@ -45,6 +45,14 @@ export const paths = {
     path: '/audit',
     href: () => '/audit',
   },
+  teams: {
+    path: '/teams',
+    href: () => '/teams',
+  },
+  teamBrief: {
+    path: '/teams/:id',
+    href: (id: string) => `/teams/${encodeURIComponent(id)}`,
+  },
   signIn: {
     path: '/auth/login',
     href: (returnTo: string) => `/auth/login?returnTo=${encodeURIComponent(returnTo)}`,

@@ -79,10 +79,22 @@ export function tableFromGrid(
     warnings: [],
   },
 ): RawTable {
-  const isEmptyRow = (r: number) => grid.every((column) => normaliseCell(column[r]) === null);
-  let headerRow = 0;
-  while (headerRow < height && isEmptyRow(headerRow)) headerRow += 1;
-  if (headerRow >= height) {
+  // One pass, column by column: normalise every cell in place and note which rows have data and
+  // where each column's last value is.
+  const rowHasData = new Uint8Array(height);
+  const lastValue = new Int32Array(grid.length).fill(-1);
+  grid.forEach((column, c) => {
+    for (let r = 0; r < height; r += 1) {
+      const value = normaliseCell(column[r]);
+      column[r] = value;
+      if (value !== null) {
+        rowHasData[r] = 1;
+        lastValue[c] = r;
+      }
+    }
+  });
+  const headerRow = rowHasData.indexOf(1);
+  if (headerRow < 0) {
     throw new IntakeError(
       'file_empty',
       422,
@@ -92,14 +104,13 @@ export function tableFromGrid(
 
   const dataRows: number[] = [];
   for (let r = headerRow + 1; r < height; r += 1) {
-    if (!isEmptyRow(r)) dataRows.push(r);
+    if (rowHasData[r]) dataRows.push(r);
   }
 
   // Columns with neither a header nor any value (formatting left in a workbook) are dropped silently.
   const kept: number[] = [];
   grid.forEach((column, c) => {
-    const hasHeader = normaliseCell(column[headerRow]) !== null;
-    if (hasHeader || dataRows.some((r) => normaliseCell(column[r]) !== null)) kept.push(c);
+    if (column[headerRow] !== null || lastValue[c] > headerRow) kept.push(c);
   });
 
   if (kept.length > limits.maxColumns) {
@@ -165,9 +176,10 @@ export function tableFromGrid(
     );
   }
 
+  const contiguous = dataRows.length === height - headerRow - 1;
   const columns = kept.map((c) => {
     const source = grid[c];
-    return dataRows.map((r) => normaliseCell(source[r]));
+    return contiguous ? source.slice(headerRow + 1, height) : dataRows.map((r) => source[r]);
   });
   const dateMasks = extra.dateMasks
     ? kept.map((c) => {

@@ -1,0 +1,286 @@
+import type { EntityManager } from 'typeorm';
+import type {
+  PublicationResponse,
+  PublicationStatus,
+  TeamBriefResponse,
+  TeamSummary,
+} from '../../../../shared/briefs';
+import type { ComputedTeam } from '../../analysis/team-briefs';
+import { Publication } from '../../entities/publication.entity';
+import { TeamBriefRecord } from '../../entities/team-brief.entity';
+import { db } from '../../lib/db';
+import { type AuditEntry, recordAudit } from '../audit/audit.repository';
+
+export type PublicationRow = {
+  id: string;
+  modelRunId: string;
+  datasetId: string;
+  status: PublicationStatus;
+  policyVersion: number;
+  k: number;
+  features: string[];
+  publishedAt: string | null;
+  teamCount: number | null;
+  withheldTeamCount: number | null;
+  endReason: string | null;
+};
+
+function toRow(p: Publication): PublicationRow {
+  return {
+    id: p.id,
+    modelRunId: p.modelRunId,
+    datasetId: p.datasetId,
+    status: p.status as PublicationStatus,
+    policyVersion: p.policyVersion,
+    k: p.k,
+    features: p.features,
+    publishedAt: p.publishedAt?.toISOString() ?? null,
+    teamCount: p.teamCount,
+    withheldTeamCount: p.withheldTeamCount,
+    endReason: p.endReason,
+  };
+}
+
+export function toPublicationResponse(p: PublicationRow): PublicationResponse {
+  return {
+    id: p.id,
+    modelRunId: p.modelRunId,
+    datasetId: p.datasetId,
+    status: p.status,
+    teamCount: p.teamCount,
+    withheldTeamCount: p.withheldTeamCount,
+    publishedAt: p.publishedAt,
+    withdrawnReason: p.status === 'withdrawn' || p.status === 'failed' ? p.endReason : null,
+  };
+}
+
+/** Starts a publication ("computing") and audits the request, in one transaction. */
+export async function insertPublication(
+  data: Pick<PublicationRow, 'modelRunId' | 'datasetId' | 'policyVersion' | 'k' | 'features'>,
+  actor: { id: string; email: string },
+  audit: Omit<AuditEntry, 'actor' | 'objectId' | 'objectType'>,
+): Promise<PublicationRow> {
+  return db().transaction(async (manager) => {
+    const repo = manager.getRepository(Publication);
+    const saved = await repo.save(
+      repo.create({
+        ...data,
+        status: 'computing',
+        publishedById: actor.id,
+        publishedByEmail: actor.email,
+      }),
+    );
+    await recordAudit({ ...audit, actor, objectType: 'publication', objectId: saved.id }, manager);
+    return toRow(saved);
+  });
+}
+
+export async function findPublication(id: string): Promise<PublicationRow | null> {
+  const found = await db().getRepository(Publication).findOneBy({ id });
+  return found ? toRow(found) : null;
+}
+
+export async function findComputingPublication(modelRunId: string): Promise<PublicationRow | null> {
+  const found = await db().getRepository(Publication).findOneBy({ modelRunId, status: 'computing' });
+  return found ? toRow(found) : null;
+}
+
+export async function listPublicationsOfRun(modelRunId: string): Promise<PublicationRow[]> {
+  const rows = await db()
+    .getRepository(Publication)
+    .find({ where: { modelRunId }, order: { createdAt: 'DESC' } });
+  return rows.map(toRow);
+}
+
+/**
+ * Stores every team's brief and makes the publication the dataset's published one; an older
+ * publication of the same dataset is replaced (its briefs deleted). Returns false when the
+ * publication stopped computing meanwhile (withdrawn by a policy change): nothing is stored then.
+ */
+export async function storeBriefs(
+  publicationId: string,
+  teams: readonly ComputedTeam[],
+  publishedAt: Date,
+): Promise<{ stored: boolean; replaced: string[] }> {
+  return db().transaction(async (manager) => {
+    const repo = manager.getRepository(Publication);
+    const publication = await repo
+      .createQueryBuilder('p')
+      .setLock('pessimistic_write')
+      .where('p.id = :id', { id: publicationId })
+      .getOne();
+    if (!publication || publication.status !== 'computing') return { stored: false, replaced: [] };
+    const older = await repo
+      .createQueryBuilder('p')
+      .setLock('pessimistic_write')
+      .where('p.dataset_id = :datasetId AND p.status = :status AND p.id <> :id', {
+        datasetId: publication.datasetId,
+        status: 'published',
+        id: publicationId,
+      })
+      .getMany();
+    for (const old of older) {
+      await endPublication(
+        manager,
+        old.id,
+        'replaced',
+        `Replaced by a newer publication (${publicationId}).`,
+      );
+    }
+    const briefs = manager.getRepository(TeamBriefRecord);
+    for (let i = 0; i < teams.length; i += 200) {
+      await briefs.insert(
+        teams.slice(i, i + 200).map((team) => ({
+          id: team.id,
+          publicationId,
+          name: team.name,
+          department: team.department,
+          managerEmail: team.managerEmail,
+          withheld: team.withheld,
+          headcount: team.headcount,
+          summary: { attritionRate: team.attritionRate, organisationRate: team.organisationRate },
+          brief: team.brief,
+        })),
+      );
+    }
+    const withheld = teams.filter((t) => t.withheld).length;
+    await repo.update(publicationId, {
+      status: 'published',
+      publishedAt,
+      teamCount: teams.length,
+      withheldTeamCount: withheld,
+    });
+    await recordAudit(
+      {
+        actor: publication.publishedById
+          ? { id: publication.publishedById, email: publication.publishedByEmail ?? '' }
+          : null,
+        action: 'briefs.published',
+        objectType: 'publication',
+        objectId: publicationId,
+        details: {
+          modelRunId: publication.modelRunId,
+          datasetId: publication.datasetId,
+          teams: teams.length,
+          withheldTeams: withheld,
+          k: publication.k,
+          replaced: older.map((o) => o.id),
+        },
+      },
+      manager,
+    );
+    return { stored: true, replaced: older.map((o) => o.modelRunId) };
+  });
+}
+
+export async function markPublicationFailed(id: string, reason: string): Promise<void> {
+  await db()
+    .getRepository(Publication)
+    .update({ id, status: 'computing' }, { status: 'failed', endedAt: new Date(), endReason: reason });
+}
+
+/** Deletes a publication's briefs and records why; inside the caller's transaction. */
+async function endPublication(
+  manager: EntityManager,
+  id: string,
+  status: 'replaced' | 'withdrawn',
+  reason: string,
+): Promise<void> {
+  await manager.getRepository(TeamBriefRecord).delete({ publicationId: id });
+  await manager.getRepository(Publication).update(id, { status, endedAt: new Date(), endReason: reason });
+}
+
+/** Live publications (published or still computing): what a withdrawal looks at. */
+export async function listLivePublications(manager?: EntityManager): Promise<PublicationRow[]> {
+  const rows = await (manager ?? db().manager)
+    .getRepository(Publication)
+    .createQueryBuilder('p')
+    .where('p.status IN (:...statuses)', { statuses: ['published', 'computing'] })
+    .getMany();
+  return rows.map(toRow);
+}
+
+/** Withdraws publications at once: their briefs are deleted, the reason kept and audited. */
+export async function withdrawPublications(
+  manager: EntityManager,
+  publications: readonly PublicationRow[],
+  reason: string,
+  actor: AuditEntry['actor'],
+): Promise<void> {
+  for (const publication of publications) {
+    await endPublication(manager, publication.id, 'withdrawn', reason);
+    await recordAudit(
+      {
+        actor,
+        action: 'briefs.withdrawn',
+        objectType: 'publication',
+        objectId: publication.id,
+        details: { modelRunId: publication.modelRunId, datasetId: publication.datasetId, reason },
+      },
+      manager,
+    );
+  }
+}
+
+const PUBLISHED = `p.status = 'published'`;
+
+function summaryOf(row: TeamBriefRecord & { publishedAt?: Date }, publishedAt: string): TeamSummary {
+  return {
+    id: row.id,
+    name: row.name,
+    department: row.department,
+    headcount: row.withheld ? null : row.headcount,
+    withheld: row.withheld,
+    ...(row.withheld
+      ? {}
+      : {
+          attritionRate: row.summary.attritionRate ?? undefined,
+          organisationRate: row.summary.organisationRate ?? undefined,
+        }),
+    publishedAt,
+  };
+}
+
+/** Teams of published briefs: all of them, or those of one manager e-mail. */
+export async function listPublishedTeams(managerEmail?: string): Promise<TeamSummary[]> {
+  const query = db()
+    .getRepository(TeamBriefRecord)
+    .createQueryBuilder('t')
+    .innerJoinAndSelect('t.publication', 'p')
+    .where(PUBLISHED)
+    .orderBy('t.department', 'ASC', 'NULLS LAST')
+    .addOrderBy('t.name', 'ASC');
+  if (managerEmail !== undefined) query.andWhere('t.manager_email = :email', { email: managerEmail });
+  const rows = await query.getMany();
+  return rows.map((row) => summaryOf(row, row.publication!.publishedAt!.toISOString()));
+}
+
+export type StoredBrief = {
+  id: string;
+  publicationId: string;
+  managerEmail: string | null;
+  brief: TeamBriefResponse;
+};
+
+/** A published team brief, or null (unknown id, or its publication is no longer published). */
+export async function findPublishedBrief(id: string): Promise<StoredBrief | null> {
+  const row = await db()
+    .getRepository(TeamBriefRecord)
+    .createQueryBuilder('t')
+    .innerJoin('t.publication', 'p')
+    .where('t.id = :id', { id })
+    .andWhere(PUBLISHED)
+    .getOne();
+  return row
+    ? { id: row.id, publicationId: row.publicationId, managerEmail: row.managerEmail, brief: row.brief }
+    : null;
+}
+
+/** Every manager e-mail with at least one team in a publication. */
+export async function managersOf(publicationId: string): Promise<string[]> {
+  const rows: { email: string }[] = await db().query(
+    `SELECT DISTINCT manager_email AS email FROM team_briefs WHERE publication_id = $1 AND manager_email IS NOT NULL ORDER BY 1`,
+    [publicationId],
+  );
+  return rows.map((r) => r.email);
+}
