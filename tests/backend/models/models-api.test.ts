@@ -141,9 +141,11 @@ describe('a model run from queue to result', () => {
   });
 
   it('trains the same tree again from the stored settings and seed', async () => {
+    // The request takes the settings the analyst chose, not what the run derived from them.
+    const { effectiveMinLeaf: _e, k: _k, requestedFeatures, ...chosen } = run.settings;
     const again = await analyst
       .post('/api/models')
-      .send({ datasetId, ...run.settings, minLeaf: run.settings.minLeaf });
+      .send({ datasetId, ...chosen, features: requestedFeatures ?? undefined });
     expect(again.status).toBe(202);
     const second = await waitForRun(analyst, again.body.id);
     expect(second.result?.tree).toEqual(run.result?.tree);

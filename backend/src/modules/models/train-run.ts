@@ -8,6 +8,7 @@ import { type TrainingInput, trainingInputFor } from './dataset-input';
 import {
   claimModelRun,
   finishModelRun,
+  holdRunLock,
   isCancelRequested,
   type ModelRunRecord,
   reportProgress,
@@ -71,7 +72,13 @@ export function failureMessage(error: unknown): string {
  */
 export async function trainModelRun(runId: string, workerName: string): Promise<void> {
   const run = await claimModelRun(runId, workerName);
-  if (run) await trainClaimedRun(run);
+  if (!run) return;
+  const release = await holdRunLock(runId);
+  try {
+    await trainClaimedRun(run);
+  } finally {
+    await release();
+  }
 }
 
 /** Trains a run this worker has claimed (status running). */
