@@ -5,6 +5,7 @@ import type { z } from 'zod';
 import { routeTable } from '../../../backend/src/lib/route-table';
 import { datasetMappingSchema } from '../../../shared/datasets';
 import { policyUpdateSchema } from '../../../shared/policy';
+import { proxyDecisionSchema } from '../../../shared/privacy';
 import { routeKey } from '../../helpers/access-matrix';
 import { rowCounts } from '../../helpers/db-snapshot';
 import { validCsv } from '../../helpers/hostile-files';
@@ -15,6 +16,7 @@ let coppice: TestCoppice;
 let privacy: request.Agent;
 let analyst: request.Agent;
 let datasetId: string;
+let reviewedId: string;
 beforeAll(async () => {
   coppice = await startTestCoppice();
   privacy = await coppice.signIn(ACCOUNTS.privacy);
@@ -22,6 +24,21 @@ beforeAll(async () => {
   const uploaded = await analyst.post('/api/datasets').attach('file', Buffer.from(validCsv()), 'staff.csv');
   expect(uploaded.status).toBe(201);
   datasetId = uploaded.body.id;
+  // A mapped dataset with a date of birth and one feature, for the proxy decision route.
+  const rows = [
+    'Staff No,Crew,Line Manager Email,Left,Date of Birth,Overtime',
+    ...Array.from(
+      { length: 12 },
+      (_, i) =>
+        `R${i},${i % 2 ? 'North' : 'South'},m@quillfern.example,${i % 3 ? 'No' : 'Yes'},19${60 + i}-05-01,${i}`,
+    ),
+  ];
+  const reviewed = await analyst
+    .post('/api/datasets')
+    .attach('file', Buffer.from(rows.join('\n')), 'staff.csv');
+  expect(reviewed.status).toBe(201);
+  reviewedId = reviewed.body.id;
+  expect((await analyst.put(`/api/datasets/${reviewedId}/mapping`).send(MAPPING)).status).toBe(200);
 });
 
 const MAPPING = {
@@ -77,12 +94,28 @@ const ROUTES: Record<string, BodyRoute> = {
     schema: datasetMappingSchema,
     reads: ['/api/datasets/:id'],
   },
+  // After the policy above blocks Date of Birth and the mapping above maps the first dataset.
+  'POST /api/datasets/:p/proxies/decisions': {
+    method: 'post',
+    path: () => `/api/datasets/${reviewedId}/proxies/decisions`,
+    agent: () => privacy,
+    valid: {
+      feature: 'Overtime',
+      blockedField: 'Date of Birth',
+      decision: 'accept',
+      reason: 'not a proxy here',
+    },
+    schema: proxyDecisionSchema,
+    reads: ['/api/policy'],
+  },
 };
 
 // State-changing routes without a JSON body, and why.
 const NO_JSON_BODY: Record<string, string> = {
   'POST /api/datasets': 'multipart upload: tests/backend/hostile/uploads.test.ts',
   'DELETE /api/datasets/:p': 'no body',
+  'POST /api/datasets/:p/approval':
+    'optional body: an empty one approves; its shapes are in tests/backend/review/dataset-review.test.ts',
 };
 
 // Refusals because of the body's shape, not because of the product's state.
