@@ -145,3 +145,13 @@ export const reviewQueueItemSchema = z.object({
 });
 export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
 export const reviewQueueSchema = z.array(reviewQueueItemSchema);
+
+/** `GET /api/models/:id/fairness` (privacy officers only). */
+export const modelFairnessSchema = z.object({
+  modelRunId: z.string(),
+  datasetId: z.string(),
+  policyVersion: z.number().int(),
+  k: z.number().int(),
+  reports: z.array(fairnessReportSchema),
+});
+export type ModelFairnessView = z.infer<typeof modelFairnessSchema>;
