@@ -8,8 +8,16 @@ export const proxyDecisionKindSchema = z.enum(['block', 'accept']);
 
 /** `POST /api/datasets/:id/proxies/decisions`: block the allowed field too, or accept it with a reason. */
 export const proxyDecisionSchema = z.strictObject({
-  feature: z.string().trim().min(1, 'feature names the allowed column').max(200),
-  blockedField: z.string().trim().min(1, 'blockedField names the blocked column').max(200),
+  feature: z
+    .string()
+    .trim()
+    .min(1, 'feature names the allowed column')
+    .max(200, 'feature is at most 200 characters'),
+  blockedField: z
+    .string()
+    .trim()
+    .min(1, 'blockedField names the blocked column')
+    .max(200, 'blockedField is at most 200 characters'),
   decision: proxyDecisionKindSchema,
   reason: z
     .string({ error: 'reason is required: say why' })
@@ -137,3 +145,13 @@ export const reviewQueueItemSchema = z.object({
 });
 export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
 export const reviewQueueSchema = z.array(reviewQueueItemSchema);
+
+/** `GET /api/models/:id/fairness` (privacy officers only). */
+export const modelFairnessSchema = z.object({
+  modelRunId: z.string(),
+  datasetId: z.string(),
+  policyVersion: z.number().int(),
+  k: z.number().int(),
+  reports: z.array(fairnessReportSchema),
+});
+export type ModelFairnessView = z.infer<typeof modelFairnessSchema>;

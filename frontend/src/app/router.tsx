@@ -7,6 +7,7 @@ import { DatasetRoute } from './routes/dataset';
 import { DatasetReviewRoute } from './routes/dataset-review';
 import { DatasetsRoute } from './routes/datasets';
 import { HomeRoute } from './routes/home';
+import { ModelFairnessRoute } from './routes/model-fairness';
 import { ModelsRoute } from './routes/models';
 import { MyTeamsRoute } from './routes/my-teams';
 import { NotFoundRoute } from './routes/not-found';
@@ -31,6 +32,7 @@ export const routes: RouteObject[] = [
       { path: paths.auditTrail.path, element: <AuditTrailRoute /> },
       { path: paths.reviewQueue.path, element: <ReviewQueueRoute /> },
       { path: paths.datasetReview.path, element: <DatasetReviewRoute /> },
+      { path: paths.modelFairness.path, element: <ModelFairnessRoute /> },
       { path: paths.teams.path, element: <MyTeamsRoute /> },
       { path: paths.teamBrief.path, element: <TeamBriefRoute /> },
       { path: '*', element: <NotFoundRoute /> },

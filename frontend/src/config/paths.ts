@@ -41,6 +41,10 @@ export const paths = {
     path: '/review/datasets/:id',
     href: (id: string) => `/review/datasets/${encodeURIComponent(id)}`,
   },
+  modelFairness: {
+    path: '/models/:id/fairness',
+    href: (id: string) => `/models/${encodeURIComponent(id)}/fairness`,
+  },
   auditTrail: {
     path: '/audit',
     href: () => '/audit',

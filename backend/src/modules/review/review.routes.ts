@@ -29,7 +29,7 @@ export function reviewRouter(): Router {
   });
 
   router.post('/api/datasets/:id/approval', requireRole('privacy_officer'), async (req, res) => {
-    const body = approvalSchema.parse(req.body ?? {});
+    const body = approvalSchema.parse(req.body);
     res.json(await decideApproval(currentUser(req), datasetId(req.params.id), body));
   });
 
