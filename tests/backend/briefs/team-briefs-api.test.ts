@@ -36,15 +36,13 @@ beforeAll(async () => {
   analyst = await coppice.signIn(ACCOUNTS.analyst);
   demo = await useDemoRuns(analyst);
   blocked = demo.protectedColumns;
-  const policy = await privacy
-    .put('/api/policy')
-    .send({
-      k: 5,
-      blockedFields: blocked,
-      proxyThreshold: 0.5,
-      retentionDays: 365,
-      reason: 'Block protected fields',
-    });
+  const policy = await privacy.put('/api/policy').send({
+    k: 5,
+    blockedFields: blocked,
+    proxyThreshold: 0.5,
+    retentionDays: 365,
+    reason: 'Block protected fields',
+  });
   expect(policy.status).toBe(200);
   north = await coppice.signIn(ACCOUNTS.managerNorth);
   south = await coppice.signIn(ACCOUNTS.managerSouth);
@@ -274,15 +272,13 @@ describe('replacing and withdrawing', () => {
         `SELECT model_run_id FROM publications WHERE status = 'published'`,
       )
     )[0]!.model_run_id;
-    const res = await privacy
-      .put('/api/policy')
-      .send({
-        k: 6,
-        blockedFields: blocked,
-        proxyThreshold: 0.5,
-        retentionDays: 365,
-        reason: 'Stricter groups',
-      });
+    const res = await privacy.put('/api/policy').send({
+      k: 6,
+      blockedFields: blocked,
+      proxyThreshold: 0.5,
+      retentionDays: 365,
+      reason: 'Stricter groups',
+    });
     expect(res.status).toBe(200);
     expect((await analyst.get('/api/teams')).body).toEqual([]);
     expect((await north.get('/api/teams')).body).toEqual([]);
@@ -322,15 +318,13 @@ describe('replacing and withdrawing', () => {
   });
 
   it('removes every brief at once when the dataset is deleted', async () => {
-    await privacy
-      .put('/api/policy')
-      .send({
-        k: 6,
-        blockedFields: blocked,
-        proxyThreshold: 0.5,
-        retentionDays: 365,
-        reason: 'Unblock again',
-      });
+    await privacy.put('/api/policy').send({
+      k: 6,
+      blockedFields: blocked,
+      proxyThreshold: 0.5,
+      retentionDays: 365,
+      reason: 'Unblock again',
+    });
     const run = await demo.requestedRun();
     expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
     await waitForPublication(run);
