@@ -23,7 +23,7 @@ export const CRITERIA = {
 } as const;
 
 /** `POST /api/models`: all but `datasetId` optional, with the defaults of API.md. */
-export const modelRunRequestSchema = z.object({
+export const modelRunRequestSchema = z.strictObject({
   datasetId: z.uuid({ error: 'datasetId must be the id of a dataset' }),
   criterion: z.enum(['gini', 'entropy'], { error: 'criterion must be "gini" or "entropy"' }).default('gini'),
   maxDepth: whole('maxDepth', MODEL_LIMITS.maxDepth.min, MODEL_LIMITS.maxDepth.max).default(6),
@@ -41,7 +41,7 @@ export type ModelRunRequest = z.infer<typeof modelRunRequestSchema>;
 export type ModelRunRequestInput = z.input<typeof modelRunRequestSchema>;
 
 /** `PUT /api/models/:id/drivers/:feature/action` */
-export const driverActionSchema = z.object({
+export const driverActionSchema = z.strictObject({
   text: z
     .string({ error: 'text must be the suggested action, in words' })
     .trim()
@@ -49,12 +49,12 @@ export const driverActionSchema = z.object({
 });
 
 /** `POST /api/models/:id/publication-request` */
-export const publicationRequestSchema = z.object({
+export const publicationRequestSchema = z.strictObject({
   comment: z.string().trim().max(MODEL_LIMITS.comment.max).optional(),
 });
 
 /** `POST /api/models/:id/send-back`: the privacy officer says what needs to change. */
-export const sendBackSchema = z.object({
+export const sendBackSchema = z.strictObject({
   comment: z
     .string({ error: 'comment is required: say what needs to change before publication' })
     .trim()

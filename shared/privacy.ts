@@ -7,9 +7,9 @@ const orWithheld = <T extends z.ZodType>(schema: T) => z.union([schema, withheld
 export const proxyDecisionKindSchema = z.enum(['block', 'accept']);
 
 /** `POST /api/datasets/:id/proxies/decisions`: block the allowed field too, or accept it with a reason. */
-export const proxyDecisionSchema = z.object({
-  feature: z.string().trim().min(1, 'feature names the allowed column'),
-  blockedField: z.string().trim().min(1, 'blockedField names the blocked column'),
+export const proxyDecisionSchema = z.strictObject({
+  feature: z.string().trim().min(1, 'feature names the allowed column').max(200),
+  blockedField: z.string().trim().min(1, 'blockedField names the blocked column').max(200),
   decision: proxyDecisionKindSchema,
   reason: z
     .string({ error: 'reason is required: say why' })
@@ -56,7 +56,7 @@ export type ProxyReportView = z.infer<typeof proxyReportSchema>;
 
 /** `POST /api/datasets/:id/approval`: approve for modelling, or send back to the analyst with a comment. */
 export const approvalSchema = z
-  .object({
+  .strictObject({
     decision: z.enum(['approve', 'send-back']).default('approve'),
     comment: z.string().trim().max(1000, 'comment is at most 1000 characters').optional(),
   })

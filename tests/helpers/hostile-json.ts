@@ -59,8 +59,10 @@ export function hostileVariants(
       });
     }
   }
-  for (const raw of ['[]', '"text"', 'null', '42', 'true', '{', '{"k":}', ''])
+  for (const raw of ['[]', '"text"', 'null', '42', 'true', '{', '{"k":}'])
     out.push({ label: `body ${raw}`, raw });
+  // An empty body reads as {}: hostile only where {} is not a valid body.
+  if (!isValid({})) out.push({ label: 'an empty body', raw: '' });
   return out;
 }
 

@@ -54,12 +54,38 @@ export function inferKind(values: readonly Cell[]): ColumnKind {
   return numeric ? 'numeric' : date ? 'date' : 'categorical';
 }
 
+/** The k-th smallest value (0-based) of `values`, reordering them in place (quickselect, O(n)). */
+function select(values: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = values.length - 1;
+  while (lo < hi) {
+    const pivot = values[(lo + hi) >>> 1]!;
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (values[i]! < pivot) i++;
+      while (values[j]! > pivot) j--;
+      if (i <= j) {
+        const t = values[i]!;
+        values[i] = values[j]!;
+        values[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return values[k]!;
+  }
+  return values[k]!;
+}
+
 /**
  * The inverted-CDF quantile (the smallest value with at least q of the values at or below it), so
  * every cut point is a value that occurs and no bin is empty.
  */
-function quantile(sorted: Float64Array, q: number): number {
-  return sorted[Math.max(0, Math.ceil(q * sorted.length) - 1)]!;
+function quantile(values: Float64Array, q: number): number {
+  return select(values, Math.max(0, Math.ceil(q * values.length) - 1));
 }
 
 function formatBound(value: number, kind: ColumnKind): string {
@@ -71,18 +97,26 @@ function formatBound(value: number, kind: ColumnKind): string {
  * Cuts numbers (or dates, as times) into `bins` quantile bins, right-closed: (−∞, q1], (q1, q2], ….
  * Tied cut points are merged, so a column with few distinct values gets fewer bins.
  */
-function binNumbers(values: readonly (number | null)[], kind: ColumnKind, bins: number): Levels {
-  const present = Float64Array.from(values.filter((v): v is number => v !== null)).sort();
+/** `values` holds NaN where a value is missing. */
+function binNumbers(values: Float64Array, kind: ColumnKind, bins: number): Levels {
+  let count = 0;
+  let max = Number.NEGATIVE_INFINITY;
+  let min = Number.POSITIVE_INFINITY;
+  for (const value of values) {
+    if (Number.isNaN(value)) continue;
+    count++;
+    if (value > max) max = value;
+    if (value < min) min = value;
+  }
+  const present = new Float64Array(count);
+  let next = 0;
+  for (const value of values) if (!Number.isNaN(value)) present[next++] = value;
   const cuts: number[] = [];
   for (let i = 1; i < bins; i++) {
     const cut = quantile(present, i / bins);
-    if (cut < present[present.length - 1]! && (cuts.length === 0 || cut > cuts[cuts.length - 1]!))
-      cuts.push(cut);
+    if (cut < max && (cuts.length === 0 || cut > cuts[cuts.length - 1]!)) cuts.push(cut);
   }
-  const labels =
-    cuts.length === 0
-      ? [`${formatBound(present[0]!, kind)} to ${formatBound(present[present.length - 1]!, kind)}`]
-      : [];
+  const labels = cuts.length === 0 ? [`${formatBound(min, kind)} to ${formatBound(max, kind)}`] : [];
   if (cuts.length > 0) {
     labels.push(`up to ${formatBound(cuts[0]!, kind)}`);
     for (let i = 1; i < cuts.length; i++) {
@@ -90,21 +124,19 @@ function binNumbers(values: readonly (number | null)[], kind: ColumnKind, bins: 
     }
     labels.push(`over ${formatBound(cuts[cuts.length - 1]!, kind)}`);
   }
+  const missingCode = count < values.length ? labels.push(MISSING_LEVEL) - 1 : -1;
   const codes = new Int32Array(values.length);
-  let missingCode = -1;
-  values.forEach((value, row) => {
-    if (value === null) {
-      if (missingCode < 0) {
-        missingCode = labels.length;
-        labels.push(MISSING_LEVEL);
-      }
+  const cutCount = cuts.length;
+  for (let row = 0; row < values.length; row++) {
+    const value = values[row]!;
+    if (Number.isNaN(value)) {
       codes[row] = missingCode;
-      return;
+      continue;
     }
     let bin = 0;
-    while (bin < cuts.length && value > cuts[bin]!) bin++;
+    while (bin < cutCount && value > cuts[bin]!) bin++;
     codes[row] = bin;
-  });
+  }
   return { kind, codes, labels, bins };
 }
 
@@ -116,12 +148,22 @@ export function toLevels(
   const kind = options.kind ?? inferKind(values);
   const bins = options.bins ?? DEFAULT_QUANTILE_BINS;
   if (kind !== 'categorical') {
-    const numbers = values.map((value) => {
-      if (isMissing(value)) return null;
-      if (kind === 'date') return dateValue(value);
-      return typeof value === 'number' && Number.isFinite(value) ? value : null;
-    });
-    if (numbers.some((v) => v !== null)) return binNumbers(numbers, kind, bins);
+    const numbers = new Float64Array(values.length);
+    let present = 0;
+    for (let row = 0; row < values.length; row++) {
+      const value = values[row];
+      const number =
+        kind === 'date'
+          ? isMissing(value)
+            ? null
+            : dateValue(value)
+          : typeof value === 'number' && Number.isFinite(value)
+            ? value
+            : null;
+      numbers[row] = number ?? Number.NaN;
+      if (number !== null) present++;
+    }
+    if (present > 0) return binNumbers(numbers, kind, bins);
   }
   const index = new Map<string, number>();
   const labels: string[] = [];
@@ -146,9 +188,12 @@ export function toLevels(
 /** Counts of rows per (level of a, level of b). */
 export function contingencyTable(a: Levels, b: Levels): number[][] {
   if (a.codes.length !== b.codes.length) throw new Error('columns differ in length');
-  const table = a.labels.map(() => new Array<number>(b.labels.length).fill(0));
-  for (let row = 0; row < a.codes.length; row++) table[a.codes[row]!]![b.codes[row]!]!++;
-  return table;
+  const width = b.labels.length;
+  const flat = new Float64Array(a.labels.length * width);
+  const { codes: left } = a;
+  const { codes: right } = b;
+  for (let row = 0; row < left.length; row++) flat[left[row]! * width + right[row]!]!++;
+  return a.labels.map((_, i) => Array.from(flat.subarray(i * width, (i + 1) * width)));
 }
 
 /** Drops rows and columns whose total is zero: a level nobody has carries no information. */

@@ -64,8 +64,8 @@ export class ModelRun {
   @Column({ name: 'excluded_features', type: 'jsonb' })
   excludedFeatures: ExcludedFeature[];
 
-  /** the engine's result, plain JSON (see models.repository) */
-  @Column({ type: 'jsonb', nullable: true })
+  /** the engine's result, plain JSON (see models.repository); large, so read only when asked for */
+  @Column({ type: 'jsonb', nullable: true, select: false })
   result: Record<string, unknown> | null;
 
   @Column({ type: 'text', nullable: true })

@@ -1,6 +1,8 @@
 import { hostname } from 'node:os';
 import type PgBoss from 'pg-boss';
 import type { EntityManager } from 'typeorm';
+import { logger } from '../lib/logger';
+import { failAbandonedRuns } from '../modules/models/models.repository';
 import { trainModelRun } from '../modules/models/train-run';
 import { boss } from './boss';
 
@@ -31,11 +33,30 @@ export async function queueModelRun(runId: string, manager?: EntityManager): Pro
   );
 }
 
+const localWorker: { boss: PgBoss; id: string } | null = null;
+
+/** Wakes this process's worker (if it runs one) so a new run starts without waiting for its next poll. */
+export function wakeModelRunWorker(): void {
+  if (localWorker) localWorker.boss.notifyWorker(localWorker.id);
+}
+
 /** One training at a time per worker: the engine takes a core, and a machine has few. */
 export async function registerModelRunWorker(
   b: PgBoss,
   workerName = `${hostname()}:${process.pid}`,
 ): Promise<string> {
+  // Runs whose worker died mid-training are failed with a reason, by whichever worker looks first.
+  const sweep = () =>
+    failAbandonedRuns()
+      .then((ids) => {
+        if (ids.length)
+          logger.warn({ runIds: ids }, 'model runs abandoned by a stopped worker marked failed');
+      })
+      .catch(() => {});
+  void sweep();
+  const timer = setInterval(sweep, 5000);
+  timer.unref();
+  b.once('stopped', () => clearInterval(timer));
   return b.work<{ runId: string }>(
     MODEL_RUN_QUEUE,
     { pollingIntervalSeconds: 1, batchSize: 1 },

@@ -22,6 +22,27 @@ export async function mappedDataset(
   return upload.body.id;
 }
 
+/**
+ * The privacy officer's review through the real API: every flagged proxy accepted with a reason
+ * (or blocked, when listed in `block`), then the dataset approved under the policy in force.
+ */
+export async function approveDataset(privacy: request.Agent, datasetId: string, block: string[] = []) {
+  const report = await privacy.get(`/api/datasets/${datasetId}/proxies`);
+  expect(report.status, JSON.stringify(report.body)).toBe(200);
+  for (const row of report.body.rows as { feature: string; blockedField: string; flagged: boolean }[]) {
+    if (!row.flagged) continue;
+    const decided = await privacy.post(`/api/datasets/${datasetId}/proxies/decisions`).send({
+      feature: row.feature,
+      blockedField: row.blockedField,
+      decision: block.includes(row.feature) ? 'block' : 'accept',
+      reason: 'Reviewed with the employee representatives',
+    });
+    expect(decided.status, JSON.stringify(decided.body)).toBeLessThan(300);
+  }
+  const approval = await privacy.post(`/api/datasets/${datasetId}/approval`).send({ decision: 'approve' });
+  expect(approval.status, JSON.stringify(approval.body)).toBe(200);
+}
+
 /** Polls a run until it has ended (done, failed or cancelled). */
 export async function waitForRun(
   agent: request.Agent,

@@ -5,7 +5,7 @@ import { registerModelRunWorker } from '../../../backend/src/jobs/model-run.job'
 import { claimModelRun } from '../../../backend/src/modules/models/models.repository';
 import { trainClaimedRun, trainModelRun } from '../../../backend/src/modules/models/train-run';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
-import { mappedDataset, waitForRun } from './model-data';
+import { approveDataset, mappedDataset, waitForRun } from './model-data';
 
 // No workers in the app process: the runs stay queued until a test starts one.
 let coppice: TestCoppice;
@@ -17,6 +17,7 @@ beforeAll(async () => {
   coppice = await startTestCoppice({ RUN_WORKERS: 'false' });
   analyst = await coppice.signIn(ACCOUNTS.analyst);
   datasetId = await mappedDataset(analyst, { rows: 200, seed: 3 });
+  await approveDataset(await coppice.signIn(ACCOUNTS.privacy), datasetId);
 });
 afterAll(async () => {
   for (const w of workers) await w.stop({ graceful: false, wait: true });

@@ -7,7 +7,7 @@ import { loadDatasetColumns } from '../../../backend/src/modules/datasets/datase
 import type { ModelRunDetail } from '../../../shared/models';
 import { isInternal, isWithheld, type TreeNode } from '../../../shared/tree';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
-import { mappedDataset, waitForRun } from './model-data';
+import { approveDataset, mappedDataset, waitForRun } from './model-data';
 
 let coppice: TestCoppice;
 let analyst: request.Agent;
@@ -23,6 +23,7 @@ beforeAll(async () => {
     coppice.signIn(ACCOUNTS.managerNorth),
   ]);
   datasetId = await mappedDataset(analyst);
+  await approveDataset(privacy, datasetId);
 });
 afterAll(async () => {
   await coppice?.stop();
@@ -55,14 +56,21 @@ describe('POST /api/models', () => {
     expect(forbidden.status).toBe(403);
   });
 
-  it('refuses a dataset that is not mapped and approved yet (409)', async () => {
+  it('refuses a mapped dataset until a privacy officer approves it (409)', async () => {
+    const id = await mappedDataset(analyst, { seed: 9 });
+    const res = await analyst.post('/api/models').send({ datasetId: id });
+    expect(res.status).toBe(409);
+    expect(res.body.error.message).toMatch(/privacy officer must approve/);
+  });
+
+  it('refuses a dataset that is not mapped yet (409)', async () => {
     const upload = await analyst
       .post('/api/datasets')
       .attach('file', Buffer.from('Staff No,Crew,Left\nA1,North,Yes\nA2,South,No\n', 'utf8'), 'tiny.csv');
     expect(upload.status).toBe(201);
     const res = await analyst.post('/api/models').send({ datasetId: upload.body.id });
     expect(res.status).toBe(409);
-    expect(res.body.error.message).toMatch(/not approved/);
+    expect(res.body.error.message).toMatch(/Map the dataset and ask a privacy officer to approve it/);
   });
 
   it('raises minLeaf to the policy k and says so in the 202 response', async () => {
@@ -133,9 +141,11 @@ describe('a model run from queue to result', () => {
   });
 
   it('trains the same tree again from the stored settings and seed', async () => {
+    // The request takes the settings the analyst chose, not what the run derived from them.
+    const { effectiveMinLeaf: _e, k: _k, requestedFeatures, ...chosen } = run.settings;
     const again = await analyst
       .post('/api/models')
-      .send({ datasetId, ...run.settings, minLeaf: run.settings.minLeaf });
+      .send({ datasetId, ...chosen, features: requestedFeatures ?? undefined });
     expect(again.status).toBe(202);
     const second = await waitForRun(analyst, again.body.id);
     expect(second.result?.tree).toEqual(run.result?.tree);
@@ -168,16 +178,21 @@ describe('blocked fields under the privacy policy', () => {
       reason: 'Block the protected characteristics',
     });
     expect(policy.status).toBe(200);
+    // the policy changed: the dataset is reviewed again, and the planted proxy blocked this time
+    expect((await analyst.post('/api/models').send({ datasetId })).status).toBe(409);
+    await approveDataset(privacy, datasetId, ['Years Since Qualification']);
     const res = await analyst
       .post('/api/models')
       .send({ datasetId, minLeaf: 5, maxDepth: 8, pruning: 'none', folds: 3 });
     expect(res.status).toBe(202);
     const excluded = res.body.excludedFeatures.map((e: { name: string }) => e.name);
     // the intake turns the date of birth into an age: derived, so blocked too
-    expect(excluded).toEqual(expect.arrayContaining(['Age (years)', 'Sex', 'Ethnicity', 'Disability']));
+    expect(excluded).toEqual(
+      expect.arrayContaining(['Age (years)', 'Sex', 'Ethnicity', 'Disability', 'Years Since Qualification']),
+    );
     expect(res.body.notices.join(' ')).toMatch(/derived from the blocked field "Date of Birth"/);
     const run = await waitForRun(analyst, res.body.id);
-    const forbidden = /birth|age \(years\)|^sex$|ethnicity|disability/i;
+    const forbidden = /birth|age \(years\)|^sex$|ethnicity|disability|qualification/i;
     for (const name of [
       ...run.features,
       ...splitFeatures(run.result!.tree),
@@ -194,13 +209,14 @@ describe('blocked fields under the privacy policy', () => {
   });
 
   it('marks runs made under an older policy as needing review when the policy changes', async () => {
-    // the runs before the first change need review already; the one made under version 2 does not
+    // runs made before the last change need review already; those made under the current version do not
+    const policy = (await analyst.get('/api/policy')).body;
     const before = await analyst.get('/api/models');
-    for (const r of before.body) expect(r.needsReview).toBe(r.policyVersion < 2);
-    expect(before.body.some((r: { policyVersion: number }) => r.policyVersion === 2)).toBe(true);
+    for (const r of before.body) expect(r.needsReview).toBe(r.policyVersion < policy.version);
+    expect(before.body.some((r: { policyVersion: number }) => r.policyVersion === policy.version)).toBe(true);
     const change = await privacy.put('/api/policy').send({
       k: 6,
-      blockedFields: ['Date of Birth', 'Sex', 'Ethnicity', 'Disability'],
+      blockedFields: policy.blockedFields,
       proxyThreshold: 0.5,
       retentionDays: 365,
       reason: 'Larger groups only',
@@ -237,6 +253,7 @@ describe('a run that cannot learn', () => {
         },
       },
     });
+    await approveDataset(privacy, id);
     const res = await analyst.post('/api/models').send({ datasetId: id });
     expect(res.status).toBe(202);
     const run = await waitForRun(analyst, res.body.id);
@@ -262,6 +279,7 @@ describe('publication requests', () => {
   }
 
   beforeAll(async () => {
+    await approveDataset(privacy, datasetId, ['Years Since Qualification']);
     const res = await analyst.post('/api/models').send({ datasetId, folds: 3, pruning: 'none', maxDepth: 3 });
     runId = res.body.id;
     await waitForRun(analyst, runId);

@@ -3,10 +3,12 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { MAIL_QUEUE } from '../../../backend/src/jobs/mail.job';
 import { sinkMessages } from '../../../backend/src/mail/mail-sink';
+import { ABANDONED_RUN_MESSAGE } from '../../../backend/src/modules/models/models.repository';
 // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
 import { freePort } from '../../../scripts/lib/pg.mjs';
 import { type CoppiceProcess, signInAcross, spawnCoppice } from '../../helpers/processes';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
+import { mappedDataset, waitForRun } from '../models/model-data';
 
 // The scale-out shape: two app processes and two worker processes against one PostgreSQL, behind
 // one public URL. This test process runs the identity provider and the mail sink they all use.
@@ -125,5 +127,49 @@ describe('two app processes and two workers on one PostgreSQL', () => {
   it('keeps both app processes answering after all of this', async () => {
     for (const app of apps) expect((await request(app.url).get('/api/health')).status).toBe(200);
     for (const p of [...apps, ...workers]) expect(p.child.exitCode).toBeNull();
+  });
+  it('trains each model run exactly once across the two workers', async () => {
+    const analyst = await coppice.signIn(ACCOUNTS.analyst);
+    const datasetId = await mappedDataset(analyst, { rows: 300 });
+    const ids: string[] = [];
+    for (const seed of [1, 2, 3]) {
+      const res = await analyst.post('/api/models').send({ datasetId, seed, folds: 3, maxDepth: 3 });
+      expect(res.status).toBe(202);
+      ids.push(res.body.id);
+    }
+    for (const id of ids) expect((await waitForRun(analyst, id, 90_000)).status).toBe('done');
+    const rows = await coppice.sql<{ attempts: number }>(
+      'SELECT attempts FROM model_runs WHERE id = ANY($1)',
+      [ids],
+    );
+    expect(rows.map((r) => r.attempts)).toEqual([1, 1, 1]);
+  });
+
+  it('fails a run with a reason when its worker is killed mid-training, storing no half-written model', async () => {
+    const analyst = await coppice.signIn(ACCOUNTS.analyst);
+    const datasetId = await mappedDataset(analyst, { rows: 1500, seed: 11 });
+    const res = await analyst.post('/api/models').send({ datasetId, folds: 10, maxDepth: 12, minLeaf: 5 });
+    expect(res.status).toBe(202);
+    let owner: string | null = null;
+    for (let i = 0; i < 600 && !owner; i++) {
+      const [row] = await coppice.sql<{ status: string; worker_name: string | null }>(
+        'SELECT status, worker_name FROM model_runs WHERE id = $1',
+        [res.body.id],
+      );
+      if (row.status === 'running') owner = row.worker_name;
+      else await new Promise((r) => setTimeout(r, 50));
+    }
+    expect(owner, 'a worker claimed the run').not.toBeNull();
+    const victim = workers.find((w) => owner!.endsWith(`:${w.child.pid}`));
+    expect(victim, `the claiming worker ${owner} is one of ours`).toBeDefined();
+    victim!.child.kill('SIGKILL');
+
+    const run = await waitForRun(analyst, res.body.id, 60_000);
+    expect(run.status).toBe('failed');
+    expect(run.error).toBe(ABANDONED_RUN_MESSAGE);
+    const [stored] = await coppice.sql<{ result: unknown }>('SELECT result FROM model_runs WHERE id = $1', [
+      res.body.id,
+    ]);
+    expect(stored.result).toBeNull();
   });
 });

@@ -72,13 +72,21 @@ export function blockedReason(
 export function selectFeatures(
   candidates: readonly FeatureFacts[],
   blockedFields: readonly string[],
-  options: { requested?: readonly string[] | null; profile?: readonly ProfiledColumn[] } = {},
+  options: {
+    requested?: readonly string[] | null;
+    profile?: readonly ProfiledColumn[];
+    /** columns blocked for this dataset only (proxies the privacy officer blocked): column → why */
+    blockedProxies?: Readonly<Record<string, string>>;
+  } = {},
 ): { allowed: string[]; excluded: ExcludedFeature[]; unknown: string[] } {
   const allowed: string[] = [];
   const excluded: ExcludedFeature[] = [];
   const requested = options.requested ? new Set(options.requested) : null;
   for (const feature of candidates) {
-    const reason = blockedReason(feature, blockedFields, options.profile);
+    const reason =
+      blockedReason(feature, blockedFields, options.profile) ??
+      options.blockedProxies?.[feature.name] ??
+      null;
     if (reason) excluded.push({ name: feature.name, reason });
     else if (requested && !requested.has(feature.name))
       excluded.push({ name: feature.name, reason: 'not chosen for this run' });

@@ -70,8 +70,13 @@ export async function insertModelRun(
 }
 
 export async function findModelRun(id: string): Promise<ModelRunRecord | null> {
-  const run = await db().getRepository(ModelRun).findOneBy({ id });
-  return run ? toRecord(run) : null;
+  const run = await db()
+    .getRepository(ModelRun)
+    .createQueryBuilder('r')
+    .addSelect('r.result')
+    .where('r.id = :id', { id })
+    .getOne();
+  return run ? toRecord({ ...run, result: run.result ?? null } as ModelRun) : null;
 }
 
 /** Runs newest first, without their results (list pages need the headline only). */
@@ -118,6 +123,50 @@ export async function claimModelRun(id: string, workerName: string): Promise<Mod
     .then((r) => r.raw);
   if (rows.length === 0) return null;
   return findModelRun(id);
+}
+
+/**
+ * While a worker trains a run it holds a PostgreSQL session lock named after the run. PostgreSQL
+ * drops the lock when the worker's connection goes, so a run whose lock is free has lost its worker.
+ */
+export async function holdRunLock(id: string): Promise<() => Promise<void>> {
+  const runner = db().createQueryRunner();
+  await runner.connect();
+  await runner.query('SELECT pg_advisory_lock(hashtext($1))', [id]);
+  return async () => {
+    await runner.query('SELECT pg_advisory_unlock(hashtext($1))', [id]).catch(() => {});
+    await runner.release();
+  };
+}
+
+export const ABANDONED_RUN_MESSAGE =
+  'The worker training this run stopped before it finished (it was restarted or ran out of memory). Nothing of this run was stored; start it again.';
+
+/** Marks runs left "running" by a worker that is gone as failed, with a reason; returns their ids. */
+export async function failAbandonedRuns(): Promise<string[]> {
+  // Runs claimed a moment ago may not hold their lock yet: leave them ten seconds.
+  const candidates: { id: string }[] = await db().query(
+    "SELECT id FROM model_runs WHERE status = 'running' AND started_at < now() - interval '10 seconds'",
+  );
+  const failed: string[] = [];
+  for (const { id } of candidates) {
+    const runner = db().createQueryRunner();
+    await runner.connect();
+    try {
+      const [{ free }] = await runner.query('SELECT pg_try_advisory_lock(hashtext($1)) AS free', [id]);
+      if (!free) continue;
+      const rows: unknown[] = await runner.query(
+        `WITH gone AS (UPDATE model_runs SET status = 'failed', error = $2, finished_at = now()
+           WHERE id = $1 AND status = 'running' RETURNING id) SELECT id FROM gone`,
+        [id, ABANDONED_RUN_MESSAGE],
+      );
+      await runner.query('SELECT pg_advisory_unlock(hashtext($1))', [id]);
+      if (rows.length > 0) failed.push(id);
+    } finally {
+      await runner.release();
+    }
+  }
+  return failed;
 }
 
 /** Stores progress; returns true when someone asked to cancel the run (or it is no longer running). */

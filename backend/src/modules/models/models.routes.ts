@@ -11,6 +11,7 @@ import { notFound } from '../../lib/errors';
 import { currentUser, requireRole } from '../auth/auth.middleware';
 import {
   cancelRun,
+  connectModelRuns,
   createModelRun,
   featureOptions,
   getRun,
@@ -18,7 +19,6 @@ import {
   requestPublication,
   sendBack,
   setDriverAction,
-  watchPolicyChanges,
 } from './models.service';
 
 const idSchema = z.uuid();
@@ -31,7 +31,7 @@ function runId(value: unknown): string {
 }
 
 export function modelsRouter(config: Config): Router {
-  watchPolicyChanges();
+  connectModelRuns();
   const router = Router();
   const readers = requireRole('analyst', 'privacy_officer');
 

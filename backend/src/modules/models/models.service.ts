@@ -6,16 +6,20 @@ import type {
   ModelRunSettings,
   ModelRunStatus,
   ModelRunSummary,
+  PublicationState,
 } from '../../../../shared/models';
 import { queueMail } from '../../jobs/mail.job';
-import { queueModelRun } from '../../jobs/model-run.job';
+import { queueModelRun, wakeModelRunWorker } from '../../jobs/model-run.job';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import type { SessionUser } from '../auth/session-types';
 import { currentPolicy, onPolicyChange } from '../policy/policy.service';
-import { findDatasetForModelling, loadTrainingInput } from './dataset-input';
+import { assertApprovedForModelling } from '../review/review.service';
+import { setBriefSources } from '../teams/brief-sources';
+import { findDatasetForModelling, keepTrainingInput, loadTrainingInput } from './dataset-input';
 import { blockedReason, selectFeatures } from './feature-rules';
 import {
   findModelRun,
+  getModelRunForPublishing,
   insertModelRun,
   listModelRuns,
   type ModelRunRecord,
@@ -24,17 +28,37 @@ import {
   privacyOfficerEmails,
   requestCancel,
   saveDriverAction,
+  setPublicationState,
 } from './models.repository';
 import { toResultView } from './result-view';
 
-let listening = false;
+let connected = false;
 
-/** Runs made under an older policy version need review once the policy changes. */
-export function watchPolicyChanges(): void {
-  if (listening) return;
-  listening = true;
+/**
+ * Connects model runs to the rest once per process: runs made under an older policy version need
+ * review when the policy changes, and publishing reads finished runs and moves their state.
+ */
+export function connectModelRuns(): void {
+  if (connected) return;
+  connected = true;
   onPolicyChange(async (change, manager) => {
     await markRunsNeedingReview(manager, change.current.version);
+  });
+  setBriefSources({
+    loadRun: async (id) => {
+      const run = await getModelRunForPublishing(id);
+      if (run?.status !== 'done' || !run.tree) return null;
+      return {
+        id: run.id,
+        datasetId: run.datasetId,
+        publicationState: run.publicationState,
+        policyVersion: run.policyVersion,
+        tree: run.tree,
+        drivers: run.drivers,
+      };
+    },
+    setPublicationState: (id, state, comment) =>
+      setPublicationState(id, state as PublicationState, comment ?? null),
   });
 }
 
@@ -64,16 +88,13 @@ function summary(run: ModelRunRecord, auc: number | null): ModelRunSummary {
 export async function createModelRun(user: SessionUser, body: ModelRunRequest): Promise<ModelRunCreated> {
   const dataset = await findDatasetForModelling(body.datasetId);
   if (!dataset) throw notFound('The dataset');
-  if (!dataset.approved) {
-    throw conflict(
-      'This dataset is not approved for modelling yet: ask a privacy officer to review and approve it first.',
-    );
-  }
+  await assertApprovedForModelling(dataset.id);
   const policy = await currentPolicy();
   const input = await loadTrainingInput(body.datasetId);
   const { allowed, excluded, unknown } = selectFeatures(input.features, policy.blockedFields, {
     requested: body.features ?? null,
     profile: dataset.profile,
+    blockedProxies: dataset.blockedProxies,
   });
   if (unknown.length > 0) {
     throw new AppError(
@@ -133,6 +154,8 @@ export async function createModelRun(user: SessionUser, body: ModelRunRequest): 
     }),
     queueModelRun,
   );
+  keepTrainingInput(dataset.id, dataset.version, input);
+  wakeModelRunWorker();
   const notices: string[] = [];
   if (raised) {
     notices.push(
@@ -168,7 +191,8 @@ export async function featureOptions(datasetId: string): Promise<FeatureOptions>
     features: input.features.map((f) => ({
       name: f.name,
       kind: f.kind,
-      blocked: blockedReason(f, policy.blockedFields, dataset.profile),
+      blocked:
+        blockedReason(f, policy.blockedFields, dataset.profile) ?? dataset.blockedProxies[f.name] ?? null,
     })),
   };
 }

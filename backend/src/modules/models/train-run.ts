@@ -4,10 +4,11 @@ import { buildTable, type ColumnInput } from '../../modeling/table';
 import { evaluate, type Progress, type TrainOptions } from '../../modeling/train';
 import { trainInWorker } from '../../modeling/train-in-worker';
 import { predict } from '../../modeling/tree-json';
-import { loadTrainingInput, type TrainingInput } from './dataset-input';
+import { type TrainingInput, trainingInputFor } from './dataset-input';
 import {
   claimModelRun,
   finishModelRun,
+  holdRunLock,
   isCancelRequested,
   type ModelRunRecord,
   reportProgress,
@@ -71,7 +72,13 @@ export function failureMessage(error: unknown): string {
  */
 export async function trainModelRun(runId: string, workerName: string): Promise<void> {
   const run = await claimModelRun(runId, workerName);
-  if (run) await trainClaimedRun(run);
+  if (!run) return;
+  const release = await holdRunLock(runId);
+  try {
+    await trainClaimedRun(run);
+  } finally {
+    await release();
+  }
 }
 
 /** Trains a run this worker has claimed (status running). */
@@ -101,7 +108,7 @@ export async function trainClaimedRun(run: ModelRunRecord): Promise<void> {
       .catch(() => {});
   }, CANCEL_CHECK_EVERY_MS);
   try {
-    const input = await loadTrainingInput(run.datasetId);
+    const input = await trainingInputFor(run.datasetId, run.datasetVersion);
     if (await isCancelRequested(runId)) abort.abort();
     if (abort.signal.aborted) throw new Error('Training was cancelled');
     const table = trainingTable(input, run.features);
@@ -119,7 +126,7 @@ export async function trainClaimedRun(run: ModelRunRecord): Promise<void> {
     if (abort.signal.aborted) {
       await finishModelRun(runId, { status: 'cancelled' });
     } else {
-      logger.warn({ err: error, runId }, 'model run failed');
+      logger.info({ err: error, runId }, 'model run failed');
       await finishModelRun(runId, { status: 'failed', error: failureMessage(error) });
     }
   } finally {

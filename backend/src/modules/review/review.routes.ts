@@ -3,6 +3,7 @@ import { z } from 'zod';
 import { approvalSchema, proxyDecisionSchema } from '../../../../shared/privacy';
 import { notFound } from '../../lib/errors';
 import { currentUser, requireRole } from '../auth/auth.middleware';
+import { modelRunFairness } from './fairness.service';
 import { approvalStatus, decideApproval, decideProxy, getProxyReport, reviewQueue } from './review.service';
 
 const datasetId = (id: unknown): string => {
@@ -30,6 +31,12 @@ export function reviewRouter(): Router {
   router.post('/api/datasets/:id/approval', requireRole('privacy_officer'), async (req, res) => {
     const body = approvalSchema.parse(req.body ?? {});
     res.json(await decideApproval(currentUser(req), datasetId(req.params.id), body));
+  });
+
+  router.get('/api/models/:id/fairness', requireRole('privacy_officer'), async (req, res) => {
+    const parsed = z.uuid().safeParse(req.params.id);
+    if (!parsed.success) throw notFound('The model run');
+    res.json(await modelRunFairness(currentUser(req), parsed.data));
   });
 
   router.get('/api/review-queue', requireRole('privacy_officer'), async (_req, res) => {

@@ -8,7 +8,13 @@ import type {
   ProxyReportView,
   ReviewQueueItem,
 } from '../../../../shared/privacy';
-import { type Cell, type ColumnKind, DEFAULT_QUANTILE_BINS, proxyReport } from '../../analysis/association';
+import {
+  type Cell,
+  type ColumnKind,
+  DEFAULT_QUANTILE_BINS,
+  type ProxyRow,
+  proxyReport,
+} from '../../analysis/association';
 import { db } from '../../lib/db';
 import { AppError, conflict, notFound } from '../../lib/errors';
 import { recordAudit } from '../audit/audit.repository';
@@ -38,30 +44,15 @@ async function reviewedDataset(id: string, manager?: EntityManager): Promise<Rev
  * privacy officers' decisions. A blocked date of birth is compared as age, as the engine sees it.
  */
 export async function getProxyReport(datasetId: string): Promise<ProxyReportView> {
-  await reviewedDataset(datasetId);
-  const [engine, policy, decisions] = await Promise.all([
-    loadDatasetColumns(datasetId),
-    currentPolicy(),
-    latestProxyDecisions(datasetId),
-  ]);
-  const blocked = new Set(policy.blockedFields);
-  const columns: Record<string, readonly Cell[]> = {};
-  const kinds: Record<string, ColumnKind> = {};
-  const allowed: string[] = [];
-  const blockedPresent: string[] = [];
-  for (const feature of engine.features) {
-    const blockedName = blocked.has(feature.name)
-      ? feature.name
-      : feature.derivedFrom && blocked.has(feature.derivedFrom)
-        ? feature.derivedFrom
-        : null;
-    const name = blockedName ?? feature.name;
-    columns[name] = feature.values;
-    kinds[name] = feature.kind === 'numeric' ? 'numeric' : 'categorical';
-    if (blockedName) blockedPresent.push(blockedName);
-    else allowed.push(feature.name);
+  const dataset = await reviewedDataset(datasetId);
+  const [policy, decisions] = await Promise.all([currentPolicy(), latestProxyDecisions(datasetId)]);
+  const key = `${datasetId}|${policy.version}|${dataset.mappedAt?.getTime()}`;
+  let rows = reportCache.get(key);
+  if (!rows) {
+    rows = await computeProxyRows(datasetId, policy);
+    reportCache.set(key, rows);
+    if (reportCache.size > REPORT_CACHE_SIZE) reportCache.delete(reportCache.keys().next().value!);
   }
-  const rows = proxyReport(columns, allowed, blockedPresent, policy.proxyThreshold, { kinds });
   const decisionOf = new Map(decisions.map((d) => [`${d.feature}\u0000${d.blockedField}`, d]));
   return {
     datasetId,
@@ -83,6 +74,33 @@ export async function getProxyReport(datasetId: string): Promise<ProxyReportView
       };
     }),
   };
+}
+
+// The association figures depend only on the stored values, the mapping and the policy: a few are
+// kept, so that reading the report again (after each decision) does not recompute it.
+const REPORT_CACHE_SIZE = 16;
+const reportCache = new Map<string, ProxyRow[]>();
+
+async function computeProxyRows(datasetId: string, policy: Policy): Promise<ProxyRow[]> {
+  const engine = await loadDatasetColumns(datasetId);
+  const blocked = new Set(policy.blockedFields);
+  const columns: Record<string, readonly Cell[]> = {};
+  const kinds: Record<string, ColumnKind> = {};
+  const allowed: string[] = [];
+  const blockedPresent: string[] = [];
+  for (const feature of engine.features) {
+    const blockedName = blocked.has(feature.name)
+      ? feature.name
+      : feature.derivedFrom && blocked.has(feature.derivedFrom)
+        ? feature.derivedFrom
+        : null;
+    const name = blockedName ?? feature.name;
+    columns[name] = feature.values;
+    kinds[name] = feature.kind === 'numeric' ? 'numeric' : 'categorical';
+    if (blockedName) blockedPresent.push(blockedName);
+    else allowed.push(feature.name);
+  }
+  return proxyReport(columns, allowed, blockedPresent, policy.proxyThreshold, { kinds });
 }
 
 /**

@@ -8,6 +8,7 @@ import { useCreateModel } from '../../features/models/api/create-model';
 import { useDatasetsForModels } from '../../features/models/api/get-datasets';
 import { useFeatureOptions } from '../../features/models/api/get-feature-options';
 import { useModels } from '../../features/models/api/get-models';
+import { useProxiesForModels } from '../../features/models/api/get-proxies';
 import { RunForm } from '../../features/models/components/run-form';
 import { RunList } from '../../features/models/components/run-list';
 import { hasRole, useMe } from '../../lib/auth';
@@ -22,6 +23,12 @@ export function ModelsRoute() {
   const runs = useModels();
   const datasets = useDatasetsForModels();
   const options = useFeatureOptions(analyst ? datasetId : '');
+  const proxyReport = useProxiesForModels(analyst ? datasetId : '');
+  const proxies = Object.fromEntries(
+    (proxyReport.data?.rows ?? [])
+      .filter((row) => row.flagged)
+      .map((row) => [row.feature, `Proxy of ${row.blockedField} (Cramér's V ${row.cramersV.toFixed(2)})`]),
+  );
   const create = useCreateModel();
   return (
     <>
@@ -42,6 +49,7 @@ export function ModelsRoute() {
               <RunForm
                 datasets={datasets.data}
                 featureOptions={options.data}
+                proxies={proxies}
                 initialDatasetId={datasetId}
                 onDatasetChange={onDatasetChange}
                 error={create.error}

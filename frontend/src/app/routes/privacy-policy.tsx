@@ -1,7 +1,10 @@
+import { useQuery } from '@tanstack/react-query';
 import { useState } from 'react';
 import { Card } from '../../components/card';
 import { ErrorNotice } from '../../components/error-notice';
 import { PageHeader } from '../../components/page-header';
+import { datasetQueryOptions } from '../../features/datasets/api/get-dataset';
+import { useDatasets } from '../../features/datasets/api/get-datasets';
 import { usePolicy } from '../../features/policy/api/get-policy';
 import { usePolicyVersions } from '../../features/policy/api/get-policy-versions';
 import { useUpdatePolicy } from '../../features/policy/api/update-policy';
@@ -16,6 +19,16 @@ export function PrivacyPolicyRoute() {
   const update = useUpdatePolicy();
   const [saved, setSaved] = useState<number | null>(null);
   const canEdit = hasRole(me, 'privacy_officer');
+  // The newest upload's columns: its likely protected characteristics are suggested, with their legal basis.
+  const newest = useDatasets().data?.[0]?.id;
+  const columns = useQuery({ ...datasetQueryOptions(newest ?? ''), enabled: canEdit && Boolean(newest) }).data
+    ?.columns;
+  const suggestions = columns
+    ?.filter((c) => c.protectedCharacteristic)
+    .map((c) => ({
+      name: c.name,
+      note: `${c.protectedCharacteristic!.characteristic}: ${c.protectedCharacteristic!.legalBasis}`,
+    }));
 
   return (
     <>
@@ -42,6 +55,8 @@ export function PrivacyPolicyRoute() {
             <PolicyForm
               policy={policy.data}
               canEdit={canEdit}
+              suggestions={suggestions}
+              knownColumns={columns?.map((c) => c.name)}
               onSubmit={async (body) => setSaved((await update.mutateAsync(body)).version)}
             />
           </Card>

@@ -18,6 +18,8 @@ export type RunFormProps = {
   datasets: readonly DatasetSummary[];
   /** the chosen dataset's feature list under the current policy, once loaded */
   featureOptions?: FeatureOptions;
+  /** allowed features that stand in for a blocked field: feature → note */
+  proxies?: Record<string, string>;
   /** the policy's k while no dataset is chosen */
   k?: number;
   initialDatasetId?: string;
@@ -29,6 +31,7 @@ export type RunFormProps = {
 export function RunForm({
   datasets,
   featureOptions,
+  proxies = {},
   k,
   initialDatasetId = '',
   onDatasetChange,
@@ -145,12 +148,12 @@ export function RunForm({
           <CheckboxGroup<ModelRunRequestInput>
             name="features"
             label="Features"
-            hint="Blocked fields and anything derived from them are locked out by the privacy policy."
+            hint="Blocked fields and anything derived from them are locked out by the privacy policy; proxies are allowed fields strongly associated with a blocked one."
             options={featureOptions.features.map((f) => ({
               value: f.name,
-              label: f.blocked ? `${f.name} (locked)` : f.name,
+              label: f.blocked ? `${f.name} (locked)` : proxies[f.name] ? `${f.name} (proxy)` : f.name,
               disabled: f.blocked !== null,
-              note: f.blocked ? `Blocked: ${f.blocked}` : undefined,
+              note: f.blocked ? `Blocked: ${f.blocked}` : proxies[f.name],
             }))}
           />
         )}

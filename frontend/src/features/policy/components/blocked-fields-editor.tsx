@@ -12,6 +12,8 @@ export type BlockedFieldsEditorProps = {
   value: readonly string[];
   onChange: (fields: string[]) => void;
   suggestions?: readonly BlockedFieldSuggestion[];
+  /** every column name of the uploaded datasets, offered while typing */
+  knownColumns?: readonly string[];
   disabled?: boolean;
   error?: string;
 };
@@ -21,6 +23,7 @@ export function BlockedFieldsEditor({
   value,
   onChange,
   suggestions = [],
+  knownColumns = [],
   disabled,
   error,
 }: BlockedFieldsEditorProps) {
@@ -104,8 +107,16 @@ export function BlockedFieldsEditor({
               }
             }}
             placeholder="Column name, exactly as in the file"
+            list={`${id}-columns`}
             className="block w-full max-w-sm rounded-md border border-slate-300 bg-white px-3 py-2 text-sm"
           />
+          <datalist id={`${id}-columns`}>
+            {knownColumns
+              .filter((name) => !value.includes(name))
+              .map((name) => (
+                <option key={name} value={name} />
+              ))}
+          </datalist>
           <Button
             variant="secondary"
             onClick={() => {

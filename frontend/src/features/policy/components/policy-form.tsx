@@ -20,6 +20,7 @@ export type PolicyFormProps = {
   /** the privacy officer edits; everyone else reads */
   canEdit: boolean;
   suggestions?: readonly BlockedFieldSuggestion[];
+  knownColumns?: readonly string[];
 };
 
 const FIELDS = ['k', 'blockedFields', 'proxyThreshold', 'retentionDays', 'reason'] as const;
@@ -35,7 +36,7 @@ function valuesOf(policy: Policy): PolicyUpdateInput {
 }
 
 /** The privacy policy's settings, each with what it means in plain words. */
-export function PolicyForm({ policy, onSubmit, canEdit, suggestions }: PolicyFormProps) {
+export function PolicyForm({ policy, onSubmit, canEdit, suggestions, knownColumns }: PolicyFormProps) {
   const form = useForm<PolicyUpdateInput, unknown, PolicyUpdate>({
     resolver: zodResolver(policyUpdateSchema),
     defaultValues: valuesOf(policy),
@@ -80,6 +81,7 @@ export function PolicyForm({ policy, onSubmit, canEdit, suggestions }: PolicyFor
             form.setValue('blockedFields', fields, { shouldDirty: true, shouldValidate: true })
           }
           suggestions={suggestions}
+          knownColumns={knownColumns}
           disabled={!canEdit}
           error={form.formState.errors.blockedFields?.message}
         />
