@@ -11,6 +11,7 @@ import {
   statusMatches,
 } from '../../helpers/access-matrix';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
+import { useDemoRuns, waitForPublication } from '../briefs/demo-sources';
 
 let coppice: TestCoppice;
 let agents: Record<Persona, request.Agent>;
@@ -23,7 +24,13 @@ beforeAll(async () => {
     manager: await coppice.signIn(ACCOUNTS.managerNorth),
     'other-manager': await coppice.signIn(ACCOUNTS.managerSouth),
   };
-});
+  // Published team briefs, so that the team-scoped routes have a brief of manager north's to guard.
+  const demo = await useDemoRuns(agents.analyst, agents.privacy_officer, { rows: 300 });
+  const run = await demo.requestedRun();
+  const published = await agents.privacy_officer.post(`/api/models/${run}/publish`).send({});
+  expect(published.status, JSON.stringify(published.body)).toBe(202);
+  expect((await waitForPublication(agents.privacy_officer, run)).status).toBe('published');
+}, 90_000);
 afterAll(async () => {
   await coppice?.stop();
 });
