@@ -68,7 +68,7 @@ const CONTRACT: Record<string, string[] | 'signed-in' | 'public'> = {
 };
 
 // Routes about one team's data: a manager of another team must be refused (403 or 404).
-const TEAM_SCOPED = new Set(['GET /api/teams/:p/brief']);
+const TEAM_SCOPED = new Set(['GET /api/teams/:p/brief', 'GET /api/teams/:p/brief.csv']);
 
 function apiRoutes(): RouteEntry[] {
   return routeTable(coppice.app).filter((r) => r.path.startsWith('/api/'));
