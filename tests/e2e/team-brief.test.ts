@@ -15,7 +15,7 @@ beforeAll(async () => {
   coppice = await startTestCoppice();
   const analyst = await coppice.signIn(ACCOUNTS.analyst);
   privacy = await coppice.signIn(ACCOUNTS.privacy);
-  const demo = await useDemoRuns(analyst, { rows: 400 });
+  const demo = await useDemoRuns(analyst, privacy, { rows: 400 });
   run = await demo.requestedRun();
   browser = await openBrowser();
 }, 90_000);

@@ -16,11 +16,35 @@ async function waitForRun(agent: request.Agent, id: string): Promise<ModelRunDet
   throw new Error(`model run ${id} did not finish`);
 }
 
+/** The privacy officer accepts the flagged proxies and approves the dataset under the policy in force. */
+async function approve(privacy: request.Agent, datasetId: string): Promise<void> {
+  const report = await privacy.get(`/api/datasets/${datasetId}/proxies`);
+  for (const row of (report.body.rows ?? []) as {
+    feature: string;
+    blockedField: string;
+    flagged: boolean;
+  }[]) {
+    if (!row.flagged) continue;
+    await privacy.post(`/api/datasets/${datasetId}/proxies/decisions`).send({
+      feature: row.feature,
+      blockedField: row.blockedField,
+      decision: 'accept',
+      reason: 'Reviewed with the employee representatives',
+    });
+  }
+  const approval = await privacy.post(`/api/datasets/${datasetId}/approval`).send({ decision: 'approve' });
+  expect([200, 409], JSON.stringify(approval.body)).toContain(approval.status);
+}
+
 /**
  * The invented demo export uploaded and mapped by the analyst through the API, and model runs
- * trained by the model runs job, each driver with a suggested action, publication requested.
+ * approved by the privacy officer and trained by the model runs job, each driver with a suggested action, publication requested.
  */
-export async function useDemoRuns(analyst: request.Agent, options: { rows?: number } = {}) {
+export async function useDemoRuns(
+  analyst: request.Agent,
+  privacy: request.Agent,
+  options: { rows?: number } = {},
+) {
   const data = generateQuillfernExport({ rows: options.rows ?? 600 });
   const upload = await analyst
     .post('/api/datasets')
@@ -53,6 +77,7 @@ export async function useDemoRuns(analyst: request.Agent, options: { rows?: numb
     ],
     /** trains a run of the demo dataset; unless told otherwise, the analyst then asks to publish it */
     async requestedRun(request = true): Promise<string> {
+      await approve(privacy, datasetId);
       const created = await analyst
         .post('/api/models')
         .send({ datasetId, folds: 2, pruning: 'none', maxDepth: 4, minLeaf: 25 });

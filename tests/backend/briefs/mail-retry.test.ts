@@ -30,7 +30,7 @@ describe('publishing while the mail server is down', () => {
   it('still publishes, and the e-mails arrive once the mail server is back', async () => {
     const analyst = await coppice.signIn(ACCOUNTS.analyst);
     const privacy = await coppice.signIn(ACCOUNTS.privacy);
-    const demo = await useDemoRuns(analyst, { rows: 300 });
+    const demo = await useDemoRuns(analyst, privacy, { rows: 300 });
     await coppice.local.mailSink!.stop();
 
     const run = await demo.requestedRun();

@@ -3,6 +3,7 @@ import type request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { z } from 'zod';
 import { routeTable } from '../../../backend/src/lib/route-table';
+import { publishBodySchema } from '../../../shared/briefs';
 import { datasetMappingSchema } from '../../../shared/datasets';
 import {
   driverActionSchema,
@@ -141,6 +142,15 @@ const ROUTES: Record<string, BodyRoute> = {
     valid: { comment: 'needs a larger k' },
     schema: sendBackSchema,
     reads: ['/api/models'],
+    validPasses: PAST_VALIDATION,
+  },
+  'POST /api/models/:p/publish': {
+    method: 'post',
+    path: () => `/api/models/${MODEL}/publish`,
+    agent: () => privacy,
+    valid: { comment: 'approved by the works council' },
+    schema: publishBodySchema,
+    reads: ['/api/models', '/api/teams'],
     validPasses: PAST_VALIDATION,
   },
 };

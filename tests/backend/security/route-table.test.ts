@@ -11,6 +11,7 @@ import {
   statusMatches,
 } from '../../helpers/access-matrix';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
+import { useDemoRuns, waitForPublication } from '../briefs/demo-sources';
 
 let coppice: TestCoppice;
 let agents: Record<Persona, request.Agent>;
@@ -23,7 +24,13 @@ beforeAll(async () => {
     manager: await coppice.signIn(ACCOUNTS.managerNorth),
     'other-manager': await coppice.signIn(ACCOUNTS.managerSouth),
   };
-});
+  // Published team briefs, so that the team-scoped routes have a brief of manager north's to guard.
+  const demo = await useDemoRuns(agents.analyst, agents.privacy_officer, { rows: 300 });
+  const run = await demo.requestedRun();
+  const published = await agents.privacy_officer.post(`/api/models/${run}/publish`).send({});
+  expect(published.status, JSON.stringify(published.body)).toBe(202);
+  expect((await waitForPublication(agents.privacy_officer, run)).status).toBe('published');
+}, 90_000);
 afterAll(async () => {
   await coppice?.stop();
 });
@@ -61,7 +68,7 @@ const CONTRACT: Record<string, string[] | 'signed-in' | 'public'> = {
 };
 
 // Routes about one team's data: a manager of another team must be refused (403 or 404).
-const TEAM_SCOPED = new Set(['GET /api/teams/:p/brief']);
+const TEAM_SCOPED = new Set(['GET /api/teams/:p/brief', 'GET /api/teams/:p/brief.csv']);
 
 function apiRoutes(): RouteEntry[] {
   return routeTable(coppice.app).filter((r) => r.path.startsWith('/api/'));

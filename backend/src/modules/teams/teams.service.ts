@@ -161,11 +161,8 @@ export function withdrawBriefsOnPolicyChange(): void {
             : null;
       if (reason) byReason.set(reason, [...(byReason.get(reason) ?? []), publication]);
     }
-    const { setPublicationState } = briefSources();
     for (const [reason, publications] of byReason) {
       await withdrawPublications(manager, publications, reason, null);
-      // In the same transaction: the analyst reads the reason on the model run.
-      for (const p of publications) await setPublicationState?.(p.modelRunId, 'withdrawn', reason, manager);
     }
   });
 }
