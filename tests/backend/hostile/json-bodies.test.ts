@@ -3,6 +3,7 @@ import type request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { z } from 'zod';
 import { routeTable } from '../../../backend/src/lib/route-table';
+import { publishBodySchema } from '../../../shared/briefs';
 import { datasetMappingSchema } from '../../../shared/datasets';
 import {
   driverActionSchema,
@@ -142,6 +143,16 @@ const ROUTES: Record<string, BodyRoute> = {
     schema: sendBackSchema,
     reads: ['/api/models'],
     validPasses: PAST_VALIDATION,
+  },
+  'POST /api/models/:p/publish': {
+    method: 'post',
+    path: () => `/api/models/${MODEL}/publish`,
+    agent: () => privacy,
+    valid: { comment: 'agreed with the works council' },
+    schema: publishBodySchema,
+    reads: ['/api/models'],
+    // Past validation a made-up run is 404 (503 while publishing is not wired to model runs).
+    validPasses: (status) => status === 404 || status === 503,
   },
 };
 
