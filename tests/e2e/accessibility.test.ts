@@ -36,13 +36,27 @@ async function checkPage(page: Page, path: string, shot: string) {
 const PAGES: Record<string, { account: string; paths: Record<string, string> }> = {
   analyst: {
     account: ACCOUNTS.analyst,
-    paths: { home: '/', datasets: '/datasets', dataset: '/datasets/:id', policy: '/privacy-policy' },
+    paths: {
+      home: '/',
+      datasets: '/datasets',
+      dataset: '/datasets/:id',
+      policy: '/privacy-policy',
+      models: '/models',
+      briefs: '/teams',
+    },
   },
   'privacy officer': {
     account: ACCOUNTS.privacy,
-    paths: { home: '/', datasets: '/datasets', policy: '/privacy-policy', audit: '/audit' },
+    paths: {
+      home: '/',
+      datasets: '/datasets',
+      policy: '/privacy-policy',
+      audit: '/audit',
+      review: '/review',
+      'dataset review': '/review/datasets/:id',
+    },
   },
-  manager: { account: ACCOUNTS.managerNorth, paths: { home: '/' } },
+  manager: { account: ACCOUNTS.managerNorth, paths: { home: '/', teams: '/teams' } },
 };
 
 describe('accessibility in Chromium (axe-core)', () => {
