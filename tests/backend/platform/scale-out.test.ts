@@ -8,7 +8,7 @@ import { ABANDONED_RUN_MESSAGE } from '../../../backend/src/modules/models/model
 import { freePort } from '../../../scripts/lib/pg.mjs';
 import { type CoppiceProcess, signInAcross, spawnCoppice } from '../../helpers/processes';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
-import { mappedDataset, waitForRun } from '../models/model-data';
+import { approveDataset, mappedDataset, waitForRun } from '../models/model-data';
 
 // The scale-out shape: two app processes and two worker processes against one PostgreSQL, behind
 // one public URL. This test process runs the identity provider and the mail sink they all use.
@@ -131,6 +131,7 @@ describe('two app processes and two workers on one PostgreSQL', () => {
   it('trains each model run exactly once across the two workers', async () => {
     const analyst = await coppice.signIn(ACCOUNTS.analyst);
     const datasetId = await mappedDataset(analyst, { rows: 300 });
+    await approveDataset(await coppice.signIn(ACCOUNTS.privacy), datasetId);
     const ids: string[] = [];
     for (const seed of [1, 2, 3]) {
       const res = await analyst.post('/api/models').send({ datasetId, seed, folds: 3, maxDepth: 3 });
@@ -148,6 +149,7 @@ describe('two app processes and two workers on one PostgreSQL', () => {
   it('fails a run with a reason when its worker is killed mid-training, storing no half-written model', async () => {
     const analyst = await coppice.signIn(ACCOUNTS.analyst);
     const datasetId = await mappedDataset(analyst, { rows: 1500, seed: 11 });
+    await approveDataset(await coppice.signIn(ACCOUNTS.privacy), datasetId);
     const res = await analyst.post('/api/models').send({ datasetId, folds: 10, maxDepth: 12, minLeaf: 5 });
     expect(res.status).toBe(202);
     let owner: string | null = null;
