@@ -70,8 +70,8 @@ describe('the team brief CSV and formula injection', () => {
   it('writes no brief cell a spreadsheet would run as a formula, even where names and actions are formulas', async () => {
     const analyst = await coppice.signIn(ACCOUNTS.analyst);
     const manager = await coppice.signIn(ACCOUNTS.managerNorth);
-    const demo = await useDemoRuns(analyst, { rows: 400 });
-    const run = demo.requestedRun();
+    const demo = await useDemoRuns(analyst, privacy, { rows: 400 });
+    const run = await demo.requestedRun();
     expect((await privacy.post(`/api/models/${run}/publish`).send({})).status).toBe(202);
     expect((await waitForPublication(privacy, run)).status).toBe('published');
     const team = ((await manager.get('/api/teams')).body as { id: string; withheld: boolean }[]).find(
