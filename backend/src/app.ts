@@ -97,10 +97,12 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
         tableName: 'session',
         createTableIfMissing: false,
         pruneSessionInterval: 600,
+        disableTouch: true,
       }),
       resave: false,
       saveUninitialized: false,
-      rolling: true,
+      // A session lasts 8 hours from sign-in; not rewriting it on every request keeps reads cheap.
+      rolling: false,
       cookie: {
         httpOnly: true,
         sameSite: 'lax',

@@ -345,14 +345,18 @@ export function generateQuillfernExport(options: { rows?: number; seed?: number 
     // Realistic drivers of resignation (invented weights): travel time between visits, weekend shifts,
     // overtime, time since the last pay rise, short tenure, low engagement, few training days.
     const logit =
-      -2.55 +
-      (travel === null ? 0 : 0.045 * (travel - 20)) +
-      0.22 * (weekends - 3) +
-      0.07 * (overtime - 5) +
-      0.045 * (sincePayRise - 13) -
-      0.55 * (engagement - 3.5) -
-      0.14 * (training - 3) +
-      (tenureMonths < 12 ? 0.8 : tenureMonths < 24 ? 0.35 : 0) +
+      -3.6 +
+      (travel === null ? 0 : 0.03 * (travel - 20) + (travel > 32 ? 1.3 : 0)) +
+      0.15 * (weekends - 3) +
+      (weekends >= 6 ? 1.1 : 0) +
+      0.05 * (overtime - 5) +
+      (overtime > 10 ? 1.0 : 0) +
+      0.03 * (sincePayRise - 13) +
+      (sincePayRise > 22 ? 1.1 : 0) -
+      0.45 * (engagement - 3.5) +
+      (engagement < 2.8 ? 1.2 : 0) -
+      0.12 * (training - 3) +
+      (tenureMonths < 12 ? 1.2 : tenureMonths < 24 ? 0.5 : 0) +
       (age < 25 ? 0.25 : 0);
     const resign = random.chance(1 / (1 + Math.exp(-logit)));
 

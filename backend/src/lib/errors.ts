@@ -24,8 +24,11 @@ export const conflict = (message: string, details?: unknown) =>
 
 /** Errors from the database driver that mean PostgreSQL cannot be reached right now. */
 export function isDatabaseDown(error: unknown): boolean {
-  const e = error as { code?: string; message?: string } | undefined;
-  if (!e) return false;
+  const outer = error as { code?: string; message?: string; driverError?: unknown } | undefined;
+  if (!outer) return false;
+  // TypeORM wraps the driver's error; look at both.
+  if (outer.driverError && outer.driverError !== error && isDatabaseDown(outer.driverError)) return true;
+  const e = outer;
   const codes = [
     'ECONNREFUSED',
     'ECONNRESET',
@@ -40,7 +43,7 @@ export function isDatabaseDown(error: unknown): boolean {
   ];
   if (e.code && codes.includes(e.code)) return true;
   const message = e.message ?? '';
-  return /Connection terminated|connect ECONNREFUSED|the database system is (shutting down|starting up)|terminating connection/i.test(
+  return /Connection terminated|connect ECONNREFUSED|the database system is (shutting down|starting up)|terminating connection|not queryable|server closed the connection|connection timeout|timeout exceeded when trying to connect/i.test(
     message,
   );
 }

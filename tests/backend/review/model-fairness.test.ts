@@ -1,7 +1,7 @@
 import type request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
-import { mappedDataset, waitForRun } from '../models/model-data';
+import { approveDataset, mappedDataset, waitForRun } from '../models/model-data';
 
 let coppice: TestCoppice;
 let analyst: request.Agent;
@@ -24,6 +24,7 @@ beforeAll(async () => {
   });
   expect(blocked.status, JSON.stringify(blocked.body)).toBe(200);
   const datasetId = await mappedDataset(analyst, { rows: 400, seed: 4 });
+  await approveDataset(privacy, datasetId);
   const created = await analyst.post('/api/models').send({ datasetId, folds: 3 });
   expect(created.status).toBe(202);
   const run = await waitForRun(analyst, created.body.id, 60_000);
