@@ -1,6 +1,6 @@
-import { CartesianGrid, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
 import { formatPercent } from '../stat-figure';
-import { ChartBox, ChartFrame, chartColors, percentTick } from './chart-frame';
+import { ChartFrame, percentTick } from './chart-frame';
+import { UnitSquareChart } from './unit-square-chart';
 
 export type GainsPoint = {
   /** 1 to 10: the top `decile` tenths of employees by predicted risk */
@@ -33,53 +33,18 @@ export function GainsChart({ points, title = 'Cumulative gains', height = 280, w
       description="Share of all leavers found when looking at the employees with the highest predicted risk first; the diagonal is random order."
       summary={summary}
     >
-      <ChartBox width={width} height={height}>
-        <LineChart data={data} margin={{ top: 8, right: 16, bottom: 20, left: 0 }}>
-          <CartesianGrid stroke={chartColors.grid} />
-          <XAxis
-            dataKey="share"
-            type="number"
-            domain={[0, 1]}
-            ticks={[0, 0.2, 0.4, 0.6, 0.8, 1]}
-            tickFormatter={percentTick}
-            tick={{ fill: chartColors.text, fontSize: 12 }}
-            label={{
-              value: 'Share of employees, highest risk first',
-              position: 'insideBottom',
-              offset: -12,
-              fill: chartColors.text,
-              fontSize: 12,
-            }}
-          />
-          <YAxis
-            type="number"
-            domain={[0, 1]}
-            tickFormatter={percentTick}
-            tick={{ fill: chartColors.text, fontSize: 12 }}
-            width={44}
-          />
-          <ReferenceLine
-            segment={[
-              { x: 0, y: 0 },
-              { x: 1, y: 1 },
-            ]}
-            stroke={chartColors.slate}
-            strokeDasharray="4 4"
-          />
-          <Tooltip
-            formatter={(value) => formatPercent(Number(value))}
-            labelFormatter={(v) => `Top ${percentTick(Number(v))}`}
-          />
-          <Line
-            dataKey="gain"
-            name="Leavers found"
-            type="linear"
-            stroke={chartColors.moss}
-            strokeWidth={2}
-            isAnimationActive={false}
-          />
-        </LineChart>
-      </ChartBox>
+      <UnitSquareChart
+        data={data}
+        xKey="share"
+        yKey="gain"
+        xLabel="Share of employees, highest risk first"
+        lineName="Leavers found"
+        xTicks={[0, 0.2, 0.4, 0.6, 0.8, 1]}
+        formatValue={formatPercent}
+        formatLabel={(x) => `Top ${percentTick(x)}`}
+        width={width}
+        height={height}
+      />
     </ChartFrame>
   );
 }

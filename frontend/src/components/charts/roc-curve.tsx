@@ -1,5 +1,5 @@
-import { CartesianGrid, Line, LineChart, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
-import { ChartBox, ChartFrame, chartColors, percentTick } from './chart-frame';
+import { ChartFrame, percentTick } from './chart-frame';
+import { UnitSquareChart } from './unit-square-chart';
 
 export type RocPoint = {
   /** false positive rate, 0 to 1 */
@@ -30,53 +30,18 @@ export function RocCurve({ points, auc, title = 'ROC curve', height = 280, width
       description="Leavers found (true positive rate) against stayers wrongly flagged (false positive rate) as the threshold moves."
       summary={summary}
     >
-      <ChartBox width={width} height={height}>
-        <LineChart data={data} margin={{ top: 8, right: 16, bottom: 20, left: 0 }}>
-          <CartesianGrid stroke={chartColors.grid} />
-          <XAxis
-            dataKey="fpr"
-            type="number"
-            domain={[0, 1]}
-            tickFormatter={percentTick}
-            tick={{ fill: chartColors.text, fontSize: 12 }}
-            label={{
-              value: 'False positive rate',
-              position: 'insideBottom',
-              offset: -12,
-              fill: chartColors.text,
-              fontSize: 12,
-            }}
-          />
-          <YAxis
-            type="number"
-            domain={[0, 1]}
-            tickFormatter={percentTick}
-            tick={{ fill: chartColors.text, fontSize: 12 }}
-            width={44}
-          />
-          <ReferenceLine
-            segment={[
-              { x: 0, y: 0 },
-              { x: 1, y: 1 },
-            ]}
-            stroke={chartColors.slate}
-            strokeDasharray="4 4"
-          />
-          <Tooltip
-            formatter={(value) => percentTick(Number(value))}
-            labelFormatter={(v) => `FPR ${percentTick(Number(v))}`}
-          />
-          <Line
-            dataKey="tpr"
-            name="True positive rate"
-            type="linear"
-            stroke={chartColors.moss}
-            strokeWidth={2}
-            dot={false}
-            isAnimationActive={false}
-          />
-        </LineChart>
-      </ChartBox>
+      <UnitSquareChart
+        data={data}
+        xKey="fpr"
+        yKey="tpr"
+        xLabel="False positive rate"
+        lineName="True positive rate"
+        formatValue={percentTick}
+        formatLabel={(x) => `FPR ${percentTick(x)}`}
+        dots={false}
+        width={width}
+        height={height}
+      />
     </ChartFrame>
   );
 }
