@@ -28,7 +28,8 @@ import { signInAgent } from '../tests/helpers/sign-in';
 const { values } = parseArgs({ options: { rows: { type: 'string', default: '100000' } } });
 const bigRows = Number(values.rows) || 100_000;
 
-async function mappedDataset(agent: request.Agent, rows: number): Promise<string> {
+/** Uploads and maps a generated export, then has the privacy officer approve it (nothing is blocked). */
+async function mappedDataset(agent: request.Agent, privacy: request.Agent, rows: number): Promise<string> {
   const csv = quillfernCsv(generateQuillfernExport({ rows, seed: 1 }));
   const created = await agent.post('/api/datasets').attach('file', Buffer.from(csv, 'utf8'), 'bench.csv');
   if (created.status !== 201)
@@ -36,6 +37,11 @@ async function mappedDataset(agent: request.Agent, rows: number): Promise<string
   const mapped = await agent.put(`/api/datasets/${created.body.id}/mapping`).send(QUILLFERN_MAPPING);
   if (mapped.status !== 200)
     throw new Error(`mapping answered ${mapped.status}: ${mapped.text.slice(0, 300)}`);
+  const approved = await privacy
+    .post(`/api/datasets/${created.body.id}/approval`)
+    .send({ decision: 'approve' });
+  if (approved.status !== 200)
+    throw new Error(`approval answered ${approved.status}: ${approved.text.slice(0, 300)}`);
   return created.body.id;
 }
 
@@ -80,13 +86,18 @@ const config = loadConfig({
 const running = await startCoppice(config, { migrate: true, listen: true });
 try {
   const agent = await signInAgent(running, 'analyst@quillfern.example', config.localIdp?.demoPassword ?? '');
-  const demoId = await mappedDataset(agent, 2400);
+  const privacy = await signInAgent(
+    running,
+    'privacy@quillfern.example',
+    config.localIdp?.demoPassword ?? '',
+  );
+  const demoId = await mappedDataset(agent, privacy, 2400);
   const demo = await timedRun(agent, demoId);
   console.log(
     `demo (2,400 rows)   run ${demo.seconds.toFixed(2)} s   AUC ${demo.auc.toFixed(3)}   goal < 3 s`,
   );
 
-  const bigId = await mappedDataset(agent, bigRows);
+  const bigId = await mappedDataset(agent, privacy, bigRows);
   const latencies: number[] = [];
   let training = true;
   const probe = (async () => {
