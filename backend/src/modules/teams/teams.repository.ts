@@ -1,10 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import type {
-  PublicationResponse,
-  PublicationStatus,
-  TeamBriefResponse,
-  TeamSummary,
-} from '../../../../shared/briefs';
+import type { PublicationResponse, PublicationStatus, TeamSummary } from '../../../../shared/briefs';
 import type { ComputedTeam } from '../../analysis/team-briefs';
 import { Publication } from '../../entities/publication.entity';
 import { TeamBriefRecord } from '../../entities/team-brief.entity';
@@ -222,9 +217,14 @@ export async function withdrawPublications(
   }
 }
 
-const PUBLISHED = `p.status = 'published'`;
+type TeamListRow = Pick<
+  TeamBriefRecord,
+  'id' | 'name' | 'department' | 'withheld' | 'headcount' | 'summary'
+> & {
+  publishedAt: Date;
+};
 
-function summaryOf(row: TeamBriefRecord & { publishedAt?: Date }, publishedAt: string): TeamSummary {
+function summaryOf(row: TeamListRow): TeamSummary {
   return {
     id: row.id,
     name: row.name,
@@ -237,54 +237,50 @@ function summaryOf(row: TeamBriefRecord & { publishedAt?: Date }, publishedAt: s
           attritionRate: row.summary.attritionRate ?? undefined,
           organisationRate: row.summary.organisationRate ?? undefined,
         }),
-    publishedAt,
+    publishedAt: row.publishedAt.toISOString(),
   };
 }
 
-/** Teams of published briefs: all of them, or those of one manager e-mail. */
+/** Teams of published briefs: all of them, or those of one manager e-mail (plain SQL: a hot read). */
 export async function listPublishedTeams(managerEmail?: string): Promise<TeamSummary[]> {
-  const query = db()
-    .getRepository(TeamBriefRecord)
-    .createQueryBuilder('t')
-    .innerJoin('t.publication', 'p')
-    // the list needs the summaries, not the briefs themselves
-    .select([
-      't.id',
-      't.name',
-      't.department',
-      't.withheld',
-      't.headcount',
-      't.summary',
-      'p.id',
-      'p.publishedAt',
-    ])
-    .where(PUBLISHED)
-    .orderBy('t.department', 'ASC', 'NULLS LAST')
-    .addOrderBy('t.name', 'ASC');
-  if (managerEmail !== undefined) query.andWhere('t.manager_email = :email', { email: managerEmail });
-  const rows = await query.getMany();
-  return rows.map((row) => summaryOf(row, row.publication!.publishedAt!.toISOString()));
+  const rows: TeamListRow[] = await db().query(
+    `SELECT t.id, t.name, t.department, t.withheld, t.headcount, t.summary, p.published_at AS "publishedAt"
+       FROM team_briefs t JOIN publications p ON p.id = t.publication_id
+      WHERE p.status = 'published' AND ($1::text IS NULL OR t.manager_email = $1)
+      ORDER BY t.department ASC NULLS LAST, t.name ASC`,
+    [managerEmail ?? null],
+  );
+  return rows.map(summaryOf);
 }
 
-export type StoredBrief = {
+/**
+ * The JSON text of a published brief the viewer may open (their own team, or any team when
+ * `preview`), with its `brief.view` audit line written by the same statement: one round trip on
+ * the path every manager takes. Null when the brief is unknown, withdrawn or not the viewer's;
+ * the caller then works out which, and audits the refusal.
+ */
+export async function viewPublishedBriefText(input: {
   id: string;
-  publicationId: string;
-  managerEmail: string | null;
-  brief: TeamBriefResponse;
-};
-
-/** A published team brief, or null (unknown id, or its publication is no longer published). */
-export async function findPublishedBrief(id: string): Promise<StoredBrief | null> {
-  const row = await db()
-    .getRepository(TeamBriefRecord)
-    .createQueryBuilder('t')
-    .innerJoin('t.publication', 'p')
-    .where('t.id = :id', { id })
-    .andWhere(PUBLISHED)
-    .getOne();
-  return row
-    ? { id: row.id, publicationId: row.publicationId, managerEmail: row.managerEmail, brief: row.brief }
-    : null;
+  viewer: { id: string; email: string };
+  managerEmail: string;
+  preview: boolean;
+  format: 'json' | 'csv';
+}): Promise<string | null> {
+  const rows: { brief: string }[] = await db().query(
+    `WITH b AS (
+       SELECT t.id, t.publication_id, t.brief
+         FROM team_briefs t JOIN publications p ON p.id = t.publication_id
+        WHERE t.id = $1 AND p.status = 'published' AND ($2::boolean OR t.manager_email = $3)
+     ), audited AS (
+       INSERT INTO audit_events (actor_id, actor_email, action, object_type, object_id, details)
+       SELECT $4, $5, 'brief.view', 'team', b.id::text,
+              jsonb_build_object('publicationId', b.publication_id, 'preview', $2::boolean, 'format', $6::text)
+         FROM b
+     )
+     SELECT b.brief::text AS brief FROM b`,
+    [input.id, input.preview, input.managerEmail, input.viewer.id, input.viewer.email, input.format],
+  );
+  return rows[0]?.brief ?? null;
 }
 
 /** Every manager e-mail with at least one team in a publication. */

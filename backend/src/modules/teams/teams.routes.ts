@@ -8,6 +8,7 @@ import {
   publicationsOfRun,
   publishRun,
   viewBrief,
+  viewBriefText,
   withdrawBriefsOnPolicyChange,
 } from './teams.service';
 
@@ -33,9 +34,9 @@ export function teamsRouter(config: Config): Router {
     '/api/teams/:id/brief',
     requireRole('manager', 'analyst', 'privacy_officer'),
     async (req, res) => {
-      const brief = await viewBrief(currentUser(req), String(req.params.id), 'json');
+      const brief = await viewBriefText(currentUser(req), String(req.params.id), 'json');
       res.set('Cache-Control', 'no-store');
-      res.json(brief);
+      res.type('application/json').send(brief);
     },
   );
 

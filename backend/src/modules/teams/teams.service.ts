@@ -14,12 +14,12 @@ import { currentPolicy, onPolicyChange } from '../policy/policy.service';
 import { briefSources } from './brief-sources';
 import {
   findComputingPublication,
-  findPublishedBrief,
   insertPublication,
   listLivePublications,
   listPublicationsOfRun,
   listPublishedTeams,
   toPublicationResponse,
+  viewPublishedBriefText,
   withdrawPublications,
 } from './teams.repository';
 
@@ -93,17 +93,27 @@ export function listTeams(user: SessionUser): Promise<TeamSummary[]> {
 }
 
 /**
- * One team brief. A manager gets only the briefs of their own teams: any other id, whether it
+ * One team brief as JSON text, straight from the database (no parse and re-serialise on the
+ * busiest read). A manager gets only the briefs of their own teams: any other id, whether it
  * exists or not, is 403, so ids cannot be probed. Every view and every refusal is audited.
  */
-export async function viewBrief(
+export async function viewBriefText(
   user: SessionUser,
   teamId: string,
   format: 'json' | 'csv',
-): Promise<TeamBriefResponse> {
-  const stored = UUID.test(teamId) ? await findPublishedBrief(teamId) : null;
+): Promise<string> {
   const preview = maySeeAllTeams(user);
-  if (!preview && (!stored || stored.managerEmail !== user.email.trim().toLowerCase())) {
+  const text = UUID.test(teamId)
+    ? await viewPublishedBriefText({
+        id: teamId,
+        viewer: user,
+        managerEmail: user.email.trim().toLowerCase(),
+        preview,
+        format,
+      })
+    : null;
+  if (text !== null) return text;
+  if (!preview) {
     await recordAudit({
       actor: user,
       action: 'brief.refused',
@@ -117,15 +127,16 @@ export async function viewBrief(
       'This brief is not about one of your teams. Your own teams are listed under "My teams".',
     );
   }
-  if (!stored) throw notFound('The team brief');
-  await recordAudit({
-    actor: user,
-    action: 'brief.view',
-    objectType: 'team',
-    objectId: stored.id,
-    details: { publicationId: stored.publicationId, preview, format },
-  });
-  return stored.brief;
+  throw notFound('The team brief');
+}
+
+/** One team brief as an object (for the CSV export); see viewBriefText. */
+export async function viewBrief(
+  user: SessionUser,
+  teamId: string,
+  format: 'json' | 'csv',
+): Promise<TeamBriefResponse> {
+  return JSON.parse(await viewBriefText(user, teamId, format)) as TeamBriefResponse;
 }
 
 /** Withdraws the briefs of a dataset at once (its deletion): for the datasets module to call in its transaction. */
