@@ -18,6 +18,7 @@ import {
   // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
 } from '../scripts/lib/pg.mjs';
 import { signInAcross, spawnCoppice } from '../tests/helpers/processes';
+import { publishDatasetBriefs } from './publish-demo';
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 30);
 const CONNECTIONS = Number(process.env.BENCH_CONNECTIONS ?? 200);
@@ -84,17 +85,19 @@ async function main() {
     const analyst = (await signInAcross(url, url, 'analyst@quillfern.example')).cookie;
     const manager = (await signInAcross(url, url, 'manager.north@quillfern.example')).cookie;
 
-    // A team brief when the product has them; until then the dataset detail (profile) as the read.
-    const teams = await request(url).get('/api/teams').set('cookie', manager);
-    const team = teams.status === 200 ? (teams.body[0]?.id as string | undefined) : undefined;
+    const privacy = (await signInAcross(url, url, 'privacy@quillfern.example')).cookie;
+    // The seeded demo dataset, published through the API as people do, gives the managers briefs.
     const datasets = await request(url).get('/api/datasets').set('cookie', analyst);
-    const heavyRead = team
-      ? { name: `GET /api/teams/:id/brief (manager)`, url: `${url}/api/teams/${team}/brief`, cookie: manager }
-      : {
-          name: 'GET /api/datasets/:id (analyst; no team briefs yet)',
-          url: `${url}/api/datasets/${datasets.body[0].id}`,
-          cookie: analyst,
-        };
+    log('publishing the demo briefs (approval, model run, publication) …');
+    await publishDatasetBriefs(url, { analyst, privacy }, datasets.body[0].id);
+    const teams = await request(url).get('/api/teams').set('cookie', manager);
+    const team = (teams.body as { id: string; withheld: boolean }[]).find((t) => !t.withheld);
+    if (!team) throw new Error('manager.north has no team with a brief');
+    const heavyRead = {
+      name: 'GET /api/teams/:id/brief (manager)',
+      url: `${url}/api/teams/${team.id}/brief`,
+      cookie: manager,
+    };
 
     log(`${CONNECTIONS} connections for ${SECONDS} s on /api/me …`);
     await hammer('GET /api/me', `${url}/api/me`, manager);
