@@ -132,8 +132,8 @@ export const approvalStatusSchema = z.object({
 });
 export type ApprovalStatusView = z.infer<typeof approvalStatusSchema>;
 
-/** `GET /api/review-queue`: what waits for a privacy officer. */
-export const reviewQueueItemSchema = z.object({
+/** A mapped dataset waiting for approval for modelling. */
+export const datasetQueueItemSchema = z.object({
   kind: z.literal('dataset'),
   id: z.string(),
   name: z.string(),
@@ -143,6 +143,32 @@ export const reviewQueueItemSchema = z.object({
   state: approvalStateSchema,
   reasons: z.array(z.string()),
 });
+export type DatasetQueueItem = z.infer<typeof datasetQueueItemSchema>;
+
+/** A model run whose publication an analyst requested and no privacy officer has decided yet. */
+export const publicationQueueItemSchema = z.object({
+  kind: z.literal('publication'),
+  /** the model run's id */
+  id: z.string(),
+  datasetId: z.string(),
+  datasetName: z.string().nullable(),
+  /** who asked and when, from the audit trail (null only if that line cannot be found) */
+  requestedBy: z.string().nullable(),
+  requestedAt: z.string().nullable(),
+  /** the analyst's note with the request, if any */
+  note: z.string().nullable(),
+  /** the privacy policy version the run was trained under */
+  policyVersion: z.number().int(),
+  /** the policy changed since the run was trained: it cannot be published, only sent back */
+  needsReview: z.boolean(),
+});
+export type PublicationQueueItem = z.infer<typeof publicationQueueItemSchema>;
+
+/** `GET /api/review-queue`: what waits for a privacy officer, datasets first, each group oldest first. */
+export const reviewQueueItemSchema = z.discriminatedUnion('kind', [
+  datasetQueueItemSchema,
+  publicationQueueItemSchema,
+]);
 export type ReviewQueueItem = z.infer<typeof reviewQueueItemSchema>;
 export const reviewQueueSchema = z.array(reviewQueueItemSchema);
 

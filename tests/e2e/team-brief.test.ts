@@ -26,12 +26,23 @@ afterAll(async () => {
 });
 
 describe('a privacy officer publishes the briefs in the browser', () => {
-  it('publishes a requested model run from its page', async () => {
+  it('finds the request in the review queue, follows it to the run page and publishes it there', async () => {
     const page = await browser.newPage();
-    await signInWithForm(page, coppice.url, ACCOUNTS.privacy, undefined, `/models/${run}`);
+    await signInWithForm(page, coppice.url, ACCOUNTS.privacy, undefined, '/review');
+    await page.getByRole('heading', { name: 'Publication requests (1)' }).waitFor();
+    expect(await page.getByRole('heading', { name: /^Datasets awaiting approval/ }).count()).toBe(1);
+    const requests = page.getByRole('table', { name: 'Publication requests' });
+    expect(await requests.textContent()).toContain(ACCOUNTS.analyst);
+    await screenshot(page, 'review-queue-publication-request');
+    await requests.getByRole('link', { name: /^Model run on / }).click();
+    await page.waitForURL(`**/models/${run}`);
+
     await page.getByRole('button', { name: 'Publish team briefs' }).click();
     await page.getByText('Published to the managers').waitFor({ timeout: 30_000 });
     expect((await waitForPublication(privacy, run)).status).toBe('published');
+
+    await page.getByRole('link', { name: 'Review queue' }).click();
+    await page.getByText('No model run waits for publication.').waitFor();
     await page.close();
     await browser.clearCookies();
   }, 60_000);

@@ -103,3 +103,58 @@ export async function insertProxyDecision(
 ): Promise<void> {
   await manager.getRepository(ProxyDecision).insert(decision);
 }
+
+export type RequestedRun = {
+  id: string;
+  datasetId: string;
+  datasetName: string | null;
+  policyVersion: number;
+  needsReview: boolean;
+  note: string | null;
+  requestedByEmail: string | null;
+  requestedAt: Date | null;
+};
+
+/**
+ * Model runs whose publication is requested and not yet decided, oldest request first. A run whose
+ * briefs are being computed (or just stored) is decided already, though its state still says
+ * requested until the briefs job finishes. Who asked and when comes from the audit trail's latest
+ * request line: the run itself keeps only the state and the note.
+ */
+export async function listRequestedRuns(): Promise<RequestedRun[]> {
+  const rows: {
+    id: string;
+    dataset_id: string;
+    dataset_name: string | null;
+    policy_version: number;
+    needs_review: boolean;
+    publication_comment: string | null;
+    actor_email: string | null;
+    at: Date | null;
+  }[] = await db().query(
+    `SELECT r.id, r.dataset_id, r.dataset_name, r.policy_version, r.needs_review, r.publication_comment,
+            req.actor_email, req.at
+     FROM model_runs r
+     LEFT JOIN LATERAL (
+       SELECT a.actor_email, a.at FROM audit_events a
+       WHERE a.action = 'model.publication_request' AND a.object_type = 'model_run'
+         AND a.object_id = r.id::text
+       ORDER BY a.at DESC, a.id DESC LIMIT 1
+     ) req ON true
+     WHERE r.publication_state = 'requested'
+       AND NOT EXISTS (
+         SELECT 1 FROM publications p WHERE p.model_run_id = r.id AND p.status IN ('computing', 'published')
+       )
+     ORDER BY req.at ASC NULLS FIRST, r.created_at ASC`,
+  );
+  return rows.map((row) => ({
+    id: row.id,
+    datasetId: row.dataset_id,
+    datasetName: row.dataset_name,
+    policyVersion: row.policy_version,
+    needsReview: row.needs_review,
+    note: row.publication_comment,
+    requestedByEmail: row.actor_email,
+    requestedAt: row.at,
+  }));
+}

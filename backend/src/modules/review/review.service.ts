@@ -29,6 +29,7 @@ import {
   latestProxyDecisions,
   listApprovals,
   listMappedDatasets,
+  listRequestedRuns,
   type ReviewedDataset,
   type StoredApproval,
 } from './review.repository';
@@ -323,12 +324,16 @@ export async function decideApproval(
   });
 }
 
-/** Mapped datasets waiting for a privacy officer, oldest first. */
+/**
+ * What waits for a privacy officer: mapped datasets to approve for modelling, then model runs whose
+ * publication an analyst requested; each group oldest first.
+ */
 export async function reviewQueue(): Promise<ReviewQueueItem[]> {
-  const [datasets, versions, current] = await Promise.all([
+  const [datasets, versions, current, runs] = await Promise.all([
     listMappedDatasets(),
     listPolicyVersions(),
     currentPolicy(),
+    listRequestedRuns(),
   ]);
   const items: ReviewQueueItem[] = [];
   for (const dataset of datasets) {
@@ -344,6 +349,19 @@ export async function reviewQueue(): Promise<ReviewQueueItem[]> {
       mappedAt: dataset.mappedAt?.toISOString() ?? null,
       state,
       reasons,
+    });
+  }
+  for (const run of runs) {
+    items.push({
+      kind: 'publication',
+      id: run.id,
+      datasetId: run.datasetId,
+      datasetName: run.datasetName,
+      requestedBy: run.requestedByEmail,
+      requestedAt: run.requestedAt?.toISOString() ?? null,
+      note: run.note,
+      policyVersion: run.policyVersion,
+      needsReview: run.needsReview,
     });
   }
   return items;

@@ -7,8 +7,10 @@ export function getReviewQueue(): Promise<ReviewQueueItem[]> {
   return api.get('/api/review-queue', { schema: reviewQueueSchema });
 }
 
+// Decisions are taken on other pages (a dataset's review, a model run's publication), so the queue
+// is read afresh each time it is opened.
 export const reviewQueueQueryOptions = () =>
-  queryOptions({ queryKey: reviewKeys.queue(), queryFn: getReviewQueue });
+  queryOptions({ queryKey: reviewKeys.queue(), queryFn: getReviewQueue, staleTime: 0 });
 
 export function useReviewQueue() {
   return useQuery(reviewQueueQueryOptions());

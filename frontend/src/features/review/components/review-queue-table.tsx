@@ -1,16 +1,17 @@
 import { Link } from 'react-router-dom';
-import type { ReviewQueueItem } from '../../../../../shared/privacy';
+import type { DatasetQueueItem } from '../../../../../shared/privacy';
 import { DataTable, type DataTableColumn } from '../../../components/data-table';
 import { ApprovalStateBadge } from './approval-state';
 
 export type ReviewQueueTableProps = {
-  items: readonly ReviewQueueItem[];
+  items: readonly DatasetQueueItem[];
   /** where one item is reviewed */
-  hrefOf: (item: ReviewQueueItem) => string;
+  hrefOf: (item: DatasetQueueItem) => string;
 };
 
+/** Mapped datasets waiting for approval for modelling. */
 export function ReviewQueueTable({ items, hrefOf }: ReviewQueueTableProps) {
-  const columns: DataTableColumn<ReviewQueueItem>[] = [
+  const columns: DataTableColumn<DatasetQueueItem>[] = [
     {
       key: 'name',
       header: 'Dataset',
@@ -60,7 +61,7 @@ export function ReviewQueueTable({ items, hrefOf }: ReviewQueueTableProps) {
       columns={columns}
       rows={items}
       rowKey={(item) => `${item.kind}-${item.id}`}
-      empty="Nothing waits for review."
+      empty="No dataset waits for approval."
     />
   );
 }
