@@ -2,12 +2,16 @@ import type { BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { generateQuillfernExport } from '../../backend/src/demo/quillfern';
 import { quillfernCsv } from '../../backend/src/demo/quillfern-csv';
+import type { ModelRunDetail } from '../../shared/models';
+import type { TreeNode } from '../../shared/tree';
+import { waitForPublication } from '../backend/briefs/demo-sources';
 import { openBrowser, screenshot, signInWithForm } from '../helpers/browser';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../helpers/test-coppice';
 
-// The whole journey across the three roles, in one browser, as far as it is written today: the
-// suggested actions, the publication request, publishing, the manager's e-mail and the manager's
-// brief are still to be added (publishing does not read real model runs in this build yet).
+// The whole journey across the three roles, in one browser: policy, upload and mapping, proxy
+// review and approval, a model run with suggested actions, the publication request, publishing,
+// the managers' e-mail and a manager reading their team briefs. Screenshots go to the ignored
+// .test-output/screenshots folder.
 let coppice: TestCoppice;
 let browser: BrowserContext;
 beforeAll(async () => {
@@ -26,8 +30,33 @@ async function as(email: string, at: string): Promise<Page> {
   return page;
 }
 
-describe('from privacy policy to a trained model run, across the roles', () => {
+type Mail = { to: string[]; subject: string; text: string; receivedAt: string };
+
+/** Polls the local mail sink until a message to `to` whose subject matches arrives. */
+async function mailTo(to: string, subject: RegExp): Promise<Mail> {
+  for (let i = 0; i < 300; i++) {
+    const box = (await (await fetch(`${coppice.url}/dev/mailbox`)).json()) as Mail[];
+    const mail = box.find((m) => m.to.includes(to) && subject.test(m.subject));
+    if (mail) return mail;
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`no e-mail to ${to} matching ${subject}`);
+}
+
+function linkIn(mail: Mail): string {
+  const link = mail.text.match(/https?:\/\/\S+/)?.[0];
+  expect(link, mail.text).toBeDefined();
+  return new URL(link!).pathname;
+}
+
+// The demo's fixed crews: manager.north runs Harrowfield Night Crew of 3 people, always under k = 6.
+const MANAGER = ACCOUNTS.managerNorth;
+const SMALL_TEAM = 'Harrowfield Night Crew';
+
+describe('from privacy policy to a manager reading a team brief, across the roles', () => {
   let datasetId = '';
+  let runId = '';
+  const actions = new Map<string, string>();
 
   it('1. the privacy officer sets k and blocks the protected fields', async () => {
     const page = await as(ACCOUNTS.privacy, '/privacy-policy');
@@ -92,9 +121,14 @@ describe('from privacy policy to a trained model run, across the roles', () => {
       timeout: 30_000,
     });
     await dataset.selectOption(datasetId);
+    // On 600 rows cross-validated pruning cuts the demo tree back to its root (no drivers to act
+    // on), so the analyst trains a shallow unpruned tree, as the seeded demo runs do.
+    await page.getByLabel('Maximum depth').fill('4');
+    await page.getByLabel('Pruning').selectOption('none');
+    await page.getByLabel('Cross-validation folds').fill('2');
     await page.getByRole('button', { name: 'Start the run' }).click();
     await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
-    const runId = new URL(page.url()).pathname.split('/').pop();
+    runId = new URL(page.url()).pathname.split('/').pop()!;
     let status = '';
     for (let i = 0; i < 240 && !['done', 'failed'].includes(status); i++) {
       [{ status }] = await coppice.sql<{ status: string }>('SELECT status FROM model_runs WHERE id = $1', [
@@ -107,6 +141,121 @@ describe('from privacy policy to a trained model run, across the roles', () => {
     await page.waitForLoadState('networkidle');
     await page.locator('svg').first().waitFor();
     await screenshot(page, 'journey-4-run');
+    await page.close();
+  });
+  it('4b. the analyst reads a segment, writes suggested actions and asks for publication', async () => {
+    const page = await as(ACCOUNTS.analyst, `/models/${runId}`);
+    const run = (await page.evaluate(
+      async (id) => (await fetch(`/api/models/${id}`)).json(),
+      runId,
+    )) as ModelRunDetail;
+    const root = run.result!.tree as Extract<TreeNode, { split: unknown }>;
+    expect(root.split, 'the demo tree has at least one split').toBeDefined();
+    const left = root.children[0] as { n: number; positive: number };
+
+    const tree = page.getByRole('group', { name: /^Tree of the model run/ });
+    await tree.locator('[data-node-id="L"]').click();
+    const segment = page.getByTestId('selected-segment');
+    await segment.waitFor();
+    const words = (await segment.textContent())!;
+    expect(words.startsWith(root.split.feature), words).toBe(true);
+    expect(words).toContain(`${left.n.toLocaleString('en-GB')} employees`);
+    expect(words).toContain(`${left.positive.toLocaleString('en-GB')} leavers`);
+    await screenshot(page, 'journey-4b-segment');
+
+    const drivers = run.result!.drivers;
+    expect(drivers.length).toBeGreaterThan(0);
+    for (const driver of drivers) {
+      const text = `Talk with the crews about ${driver.feature.toLowerCase()} (invented demo action)`;
+      actions.set(driver.feature, text);
+      const box = page.getByLabel(`Suggested action for managers (${driver.feature})`);
+      await box.fill(text);
+      const row = page.getByRole('listitem').filter({ has: box });
+      await row.getByRole('button', { name: 'Save action' }).click();
+      await row.getByRole('status').filter({ hasText: 'Saved' }).waitFor();
+    }
+    await page.reload();
+    for (const [feature, text] of actions)
+      await expect
+        .poll(() => page.getByLabel(`Suggested action for managers (${feature})`).inputValue())
+        .toBe(text);
+    await screenshot(page, 'journey-4b-actions');
+
+    await page.getByLabel('A note for the privacy officers (optional)').fill('Ready for the managers');
+    await page.getByRole('button', { name: 'Request publication' }).click();
+    await page.getByText('Publication requested', { exact: false }).first().waitFor();
+    await expect.poll(() => page.getByRole('button', { name: 'Request publication' }).count()).toBe(0);
+    const [{ publication_state }] = await coppice.sql<{ publication_state: string }>(
+      'SELECT publication_state FROM model_runs WHERE id = $1',
+      [runId],
+    );
+    expect(publication_state).toBe('requested');
+    await screenshot(page, 'journey-4b-requested');
+    await page.close();
+  });
+
+  it('5. the privacy officer follows the request e-mail to the run and publishes the team briefs', async () => {
+    const request = await mailTo(ACCOUNTS.privacy, /asks for publication/);
+    expect(request.text).toContain('Ready for the managers');
+    const page = await as(ACCOUNTS.privacy, linkIn(request));
+    expect(new URL(page.url()).pathname).toBe(`/models/${runId}`);
+    await page.getByRole('button', { name: 'Publish team briefs' }).click();
+    await page.getByText('Published to the managers').waitFor({ timeout: 60_000 });
+    const publication = await waitForPublication(await coppice.signIn(ACCOUNTS.privacy), runId);
+    expect(publication.status).toBe('published');
+    expect(publication.withheldTeamCount).toBeGreaterThan(0);
+    await screenshot(page, 'journey-5-published');
+    await page.close();
+  });
+
+  let teamsLink = '';
+  it("6. the manager's e-mail arrives in the mail sink, with a link and no figures", async () => {
+    const mail = await mailTo(MANAGER, /^Team briefs are ready in Coppice$/);
+    expect(mail.to).toEqual([MANAGER]);
+    teamsLink = linkIn(mail);
+    expect(teamsLink).toBe('/teams');
+    const words = mail.text.replace(/https?:\/\/\S+/g, '');
+    expect(words).not.toMatch(/\d|%/);
+    expect(words).not.toContain(SMALL_TEAM);
+    expect(words).toMatch(/not for decisions about any one person/);
+
+    await browser.clearCookies();
+    const page = await browser.newPage();
+    await page.goto(`${coppice.url}/dev/mailbox`);
+    expect(await page.textContent('body')).toContain(MANAGER);
+    await screenshot(page, 'journey-6-mailbox');
+    await page.close();
+  });
+
+  it('7. the manager opens their teams, sees the small team withheld and reads a brief with the caution', async () => {
+    const page = await as(MANAGER, teamsLink);
+    await page.getByRole('heading', { name: 'My teams' }).waitFor();
+    const cards = page.getByRole('list', { name: 'Teams' }).getByRole('listitem');
+    await cards.first().waitFor();
+    const withheld = cards.filter({ hasText: SMALL_TEAM });
+    expect(await withheld.getAttribute('data-withheld')).toBe('true');
+    expect(await withheld.textContent()).toContain('withheld: fewer than k employees');
+    expect(await page.getByRole('complementary', { name: 'Caution' }).textContent()).toContain(
+      'must not be used for decisions about individuals',
+    );
+    await screenshot(page, 'journey-7-my-teams');
+
+    const visible = page.locator('ul[aria-label="Teams"] > li:not([data-withheld])').first();
+    const name = (await visible.getByRole('heading').textContent())!.trim();
+    await visible.getByRole('link').click();
+    const brief = page.getByRole('article', { name: `Team brief: ${name}` });
+    await brief.waitFor();
+    const text = (await brief.textContent())!;
+    expect(text).toContain('must not be used for decisions about individuals');
+    expect(text).toContain('employee representatives');
+    // The actions the analyst wrote in 4b reach the manager beside their team's drivers.
+    const driverCards = brief.getByTestId('driver-card');
+    expect(await driverCards.count()).toBeGreaterThan(0);
+    for (const card of await driverCards.all()) {
+      const feature = (await card.getByRole('heading').textContent())!.trim();
+      expect(await card.textContent()).toContain(actions.get(feature));
+    }
+    await screenshot(page, 'journey-7-brief');
     await page.close();
   });
 });
