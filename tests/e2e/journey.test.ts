@@ -9,9 +9,10 @@ import { openBrowser, screenshot, signInWithForm } from '../helpers/browser';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../helpers/test-coppice';
 
 // The whole journey across the three roles, in one browser: policy, upload and mapping, proxy
-// review and approval, a model run with suggested actions, the publication request, publishing,
-// the managers' e-mail and a manager reading their team briefs. Screenshots go to the ignored
-// .test-output/screenshots folder.
+// review and approval, a model run with suggested actions, the publication request, which the
+// privacy officer finds in the review queue and publishes from the run page, the managers' e-mail
+// and a manager reading their team briefs. Screenshots go to the ignored .test-output/screenshots
+// folder.
 let coppice: TestCoppice;
 let browser: BrowserContext;
 beforeAll(async () => {
@@ -194,17 +195,34 @@ describe('from privacy policy to a manager reading a team brief, across the role
     await page.close();
   });
 
-  it('5. the privacy officer follows the request e-mail to the run and publishes the team briefs', async () => {
+  it('5. the privacy officer finds the request in the review queue, publishes the run there and the request leaves the queue', async () => {
+    // The e-mail to the privacy officers still arrives with the note and a link to the run.
     const request = await mailTo(ACCOUNTS.privacy, /asks for publication/);
     expect(request.text).toContain('Ready for the managers');
-    const page = await as(ACCOUNTS.privacy, linkIn(request));
-    expect(new URL(page.url()).pathname).toBe(`/models/${runId}`);
+    expect(linkIn(request)).toBe(`/models/${runId}`);
+
+    const page = await as(ACCOUNTS.privacy, '/review');
+    await page.getByRole('heading', { name: /^Publication requests \(/ }).waitFor();
+    const requests = page.getByRole('table', { name: 'Publication requests' });
+    const thisRun = requests.getByRole('row').filter({ hasText: `run ${runId.slice(0, 8)}` });
+    expect(await thisRun.count()).toBe(1);
+    const row = (await thisRun.textContent())!;
+    expect(row).toContain(ACCOUNTS.analyst);
+    expect(row).toContain('Ready for the managers');
+    await screenshot(page, 'journey-5-review-queue');
+
+    await thisRun.getByRole('link', { name: /^Model run on / }).click();
+    await page.waitForURL(`**/models/${runId}`);
     await page.getByRole('button', { name: 'Publish team briefs' }).click();
     await page.getByText('Published to the managers').waitFor({ timeout: 60_000 });
     const publication = await waitForPublication(await coppice.signIn(ACCOUNTS.privacy), runId);
     expect(publication.status).toBe('published');
     expect(publication.withheldTeamCount).toBeGreaterThan(0);
     await screenshot(page, 'journey-5-published');
+
+    await page.getByRole('link', { name: 'Review queue' }).click();
+    await page.getByRole('heading', { name: /^Publication requests \(/ }).waitFor();
+    await expect.poll(() => thisRun.count()).toBe(0);
     await page.close();
   });
 
