@@ -84,6 +84,32 @@ describe('the privacy policy form', () => {
     ).toEqual(['Gender', 'Ethnicity']);
   });
 
+  it('blocks every suggested protected characteristic with one press, then saves them', async () => {
+    const onSubmit = vi.fn(async () => {});
+    render(
+      <PolicyForm
+        policy={policy}
+        canEdit
+        onSubmit={onSubmit}
+        suggestions={[
+          { name: 'Date of Birth', note: 'age' },
+          { name: 'Gender', note: 'sex' },
+          { name: 'Religion', note: 'religion or belief' },
+        ]}
+      />,
+    );
+    // Date of Birth is blocked already, so two suggestions remain open.
+    await press('Block all 2 suggested');
+    expect(screen.queryByRole('button', { name: /Block all/ })).toBeNull();
+    fireEvent.change(screen.getByLabelText('Reason for the change'), {
+      target: { value: 'Intake suggestions' },
+    });
+    await press(/Save as version 4/);
+    expect(onSubmit).toHaveBeenCalledWith(
+      expect.objectContaining({ blockedFields: ['Date of Birth', 'Gender', 'Religion'] }),
+    );
+  });
+
   it('shows the server’s message beside the field it names', async () => {
     const onSubmit = vi.fn(async () => {
       throw new ApiError(400, 'invalid_body', 'The request is not valid; see details for each field.', [

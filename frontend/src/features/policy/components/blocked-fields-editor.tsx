@@ -69,7 +69,20 @@ export function BlockedFieldsEditor({
       )}
       {!disabled && open.length > 0 && (
         <div className="mt-3">
-          <p className="text-xs font-medium text-slate-700">Suggested from the uploaded datasets</p>
+          <div className="flex flex-wrap items-center gap-3">
+            <p className="text-xs font-medium text-slate-700">
+              Suggested from the uploaded datasets: likely protected characteristics
+            </p>
+            {open.length > 1 && (
+              <Button
+                size="sm"
+                variant="secondary"
+                onClick={() => onChange([...value, ...open.map((s) => s.name)])}
+              >
+                Block all {open.length} suggested
+              </Button>
+            )}
+          </div>
           <ul className="mt-1 space-y-1">
             {open.map((s) => (
               <li key={s.name} className="flex items-start gap-2 text-sm">
