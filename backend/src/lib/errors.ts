@@ -1,5 +1,6 @@
 import type { ErrorRequestHandler, RequestHandler } from 'express';
 import { z } from 'zod';
+import { db } from './db';
 import { logger } from './logger';
 
 /** A failure a person can act on: `code` for programs, `message` for people, the HTTP status of API.md. */
@@ -52,7 +53,25 @@ export const notFoundHandler: RequestHandler = (req, _res, next) => {
   next(new AppError('not_found', 404, `No route for ${req.method} ${req.path}.`));
 };
 
-export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+/** Whether PostgreSQL answers a trivial query within a second. */
+async function databaseAnswers(): Promise<boolean> {
+  try {
+    await Promise.race([
+      db().query('SELECT 1'),
+      new Promise((_, reject) => setTimeout(() => reject(new Error('timeout')), 1000)),
+    ]);
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+const DATABASE_UNAVAILABLE = {
+  code: 'database_unavailable',
+  message: 'The database is not reachable right now. Nothing was changed; please try again in a minute.',
+};
+
+export const errorHandler: ErrorRequestHandler = async (err, req, res, _next) => {
   let status = 500;
   let body: { code: string; message: string; details?: unknown };
   if (err instanceof AppError) {
@@ -71,12 +90,11 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   } else if (err?.type === 'entity.parse.failed') {
     status = 400;
     body = { code: 'invalid_json', message: 'The request body is not valid JSON.' };
-  } else if (isDatabaseDown(err)) {
+  } else if (isDatabaseDown(err) || !(await databaseAnswers())) {
+    // An outage can surface as an error of any shape from a driver or the ORM: when PostgreSQL
+    // does not answer either, the outage is what the person needs to hear about.
     status = 503;
-    body = {
-      code: 'database_unavailable',
-      message: 'The database is not reachable right now. Nothing was changed; please try again in a minute.',
-    };
+    body = DATABASE_UNAVAILABLE;
   } else {
     body = {
       code: 'internal',
