@@ -95,6 +95,12 @@ describe('from privacy policy to a manager reading a team brief, across the role
     const page = await as(ACCOUNTS.privacy, `/review/datasets/${datasetId}`);
     // The demo plants one proxy: years since qualification, tied to age.
     await page.getByRole('button', { name: 'Accept Years Since Qualification' }).waitFor({ timeout: 60_000 });
+    // The intake's likely protected characteristics, each with whether the policy blocks it.
+    const flagged = page.locator('section').filter({
+      has: page.getByRole('heading', { name: 'Likely protected characteristics' }),
+    });
+    await expect.poll(async () => (await flagged.textContent()) ?? '').toMatch(/Sex.*· blocked/);
+    expect(await flagged.textContent()).toMatch(/Marital Status.*not blocked: models may split on it/);
     const accept = page.getByRole('button', { name: /^Accept / });
     for (let i = 0; i < 20 && (await accept.count()) > 0; i++) {
       await accept.first().click();

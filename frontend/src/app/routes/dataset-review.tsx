@@ -37,6 +37,9 @@ export function DatasetReviewRoute() {
   if (dataset.isError) return <ErrorNotice error={dataset.error} title="The dataset could not be loaded" />;
   const d = dataset.data;
   const columnNames = new Set(d.columns.map((c) => c.name));
+  const blockedNames = new Set((policy.data?.blockedFields ?? []).map((f) => f.toLowerCase()));
+  const flagged = d.columns.filter((c) => c.protectedCharacteristic);
+  const unblocked = flagged.filter((c) => !blockedNames.has(c.name.toLowerCase())).length;
 
   return (
     <>
@@ -84,6 +87,33 @@ export function DatasetReviewRoute() {
               <p className="text-sm text-slate-600">
                 The privacy policy blocks no field yet.{' '}
                 <Link to={paths.privacyPolicy.href()}>Set the policy</Link> first.
+              </p>
+            )}
+          </Card>
+          <Card title="Likely protected characteristics">
+            {flagged.length > 0 ? (
+              <ul className="space-y-1 text-sm text-slate-800">
+                {flagged.map((column) => (
+                  <li key={column.name}>
+                    {column.name}
+                    <span className="text-slate-500"> · {column.protectedCharacteristic?.legalBasis}</span>
+                    {blockedNames.has(column.name.toLowerCase()) ? (
+                      <span className="ml-1 text-moss-800">· blocked</span>
+                    ) : (
+                      <span className="ml-1 font-medium text-signal-700">
+                        · not blocked: models may split on it
+                      </span>
+                    )}
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="text-sm text-slate-600">The intake flagged none.</p>
+            )}
+            {unblocked > 0 && (
+              <p className="mt-2 text-xs text-slate-600">
+                Block them in the <Link to={paths.privacyPolicy.href()}>privacy policy</Link> before
+                approving, unless the employee representatives agreed to their use.
               </p>
             )}
           </Card>
