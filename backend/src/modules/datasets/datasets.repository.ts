@@ -75,17 +75,29 @@ export async function insertDataset(
       mappedAt: null,
     });
     await manager.insert(Dataset, dataset);
-    for (const column of input.prepared.columns) {
-      // One insert per column keeps each statement's parameters to one JSONB array.
-      await manager.insert(DatasetColumn, {
-        datasetId: dataset.id,
-        role: 'source',
-        position: column.position,
-        name: column.name,
-        type: column.type,
-        dateOrder: column.dateOrder,
-        values: column.values,
-      });
+    // One statement for all columns; the values arrive as JSON text and go in without re-encoding.
+    const columns = input.prepared.columns;
+    if (columns.length > 0) {
+      const rows: string[] = [];
+      const parameters: unknown[] = [];
+      for (const column of columns) {
+        const at = parameters.length;
+        rows.push(
+          `($${at + 1}, 'source', $${at + 2}, $${at + 3}, $${at + 4}, $${at + 5}, $${at + 6}::jsonb)`,
+        );
+        parameters.push(
+          dataset.id,
+          column.position,
+          column.name,
+          column.type,
+          column.dateOrder,
+          column.valuesJson,
+        );
+      }
+      await manager.query(
+        `INSERT INTO "dataset_columns" ("dataset_id", "role", "position", "name", "type", "date_order", "values") VALUES ${rows.join(', ')}`,
+        parameters,
+      );
     }
     await recordAudit(audit(dataset.id), manager);
     const saved = await manager.findOneByOrFail(Dataset, { id: dataset.id });
