@@ -75,28 +75,13 @@ export async function insertDataset(
       mappedAt: null,
     });
     await manager.insert(Dataset, dataset);
-    // One statement for all columns; the values arrive as JSON text and go in without re-encoding.
-    const columns = input.prepared.columns;
-    if (columns.length > 0) {
-      const rows: string[] = [];
-      const parameters: unknown[] = [];
-      for (const column of columns) {
-        const at = parameters.length;
-        rows.push(
-          `($${at + 1}, 'source', $${at + 2}, $${at + 3}, $${at + 4}, $${at + 5}, $${at + 6}::jsonb)`,
-        );
-        parameters.push(
-          dataset.id,
-          column.position,
-          column.name,
-          column.type,
-          column.dateOrder,
-          column.valuesJson,
-        );
-      }
+    // The values arrive as JSON text and go in as they are. One statement per column: measured
+    // faster than one statement carrying all columns' values.
+    for (const column of input.prepared.columns) {
       await manager.query(
-        `INSERT INTO "dataset_columns" ("dataset_id", "role", "position", "name", "type", "date_order", "values") VALUES ${rows.join(', ')}`,
-        parameters,
+        `INSERT INTO "dataset_columns" ("dataset_id", "role", "position", "name", "type", "date_order", "values")
+         VALUES ($1, 'source', $2, $3, $4, $5, $6::jsonb)`,
+        [dataset.id, column.position, column.name, column.type, column.dateOrder, column.valuesJson],
       );
     }
     await recordAudit(audit(dataset.id), manager);
