@@ -73,6 +73,10 @@ function peakRssMb(pid: number): number {
   const status = readFileSync(`/proc/${pid}/status`, 'utf8');
   return Math.round(Number(/VmHWM:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024);
 }
+function residentMb(pid: number): number {
+  const status = readFileSync(`/proc/${pid}/status`, 'utf8');
+  return Math.round(Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? 0) / 1024);
+}
 function resetPeak(pid: number): void {
   try {
     writeFileSync(`/proc/${pid}/clear_refs`, '5');
@@ -131,7 +135,9 @@ const server = await spawnCoppice(
 const pid = server.child.pid ?? 0;
 try {
   const { cookie } = await signInAcross(url, url, 'analyst@quillfern.example');
-  console.log(`Node ${process.version}, ${os.cpus().length} cores; load average at start ${load()}`);
+  console.log(
+    `Node ${process.version}, ${os.cpus().length} cores; load average at start ${load()}; server resident at start ${residentMb(pid)} MB`,
+  );
   console.log(
     'rows     format  size MB  profiled+stored s (read + store)  server CPU s  mapped s  server peak MB  load (1 5 15 min)',
   );

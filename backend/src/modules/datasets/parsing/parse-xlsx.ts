@@ -72,6 +72,7 @@ function runWorker(
   bytes: Uint8Array,
   sheet: string | undefined,
   limits: IntakeLimits,
+  handOverBytes: boolean,
 ): Promise<WorkerResult> {
   return new Promise((resolve, reject) => {
     const worker = new Worker(WORKER_URL, {
@@ -82,6 +83,13 @@ function runWorker(
         maxColumns: limits.maxColumns,
       },
       resourceLimits: { maxOldGenerationSizeMb: limits.workbookHeapMb },
+      // Moved rather than copied when the caller is done with them (and they fill their buffer).
+      transferList:
+        handOverBytes && bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength
+          ? [bytes.buffer as ArrayBuffer]
+          : [],
+      // A plain module: it needs none of the TypeScript loader the process may have been started with.
+      execArgv: [],
       stdout: true,
       stderr: true,
     });
@@ -145,10 +153,10 @@ function runWorker(
 export async function parseXlsx(
   bytes: Uint8Array,
   limits: IntakeLimits,
-  options: { sheet?: string } = {},
+  options: { sheet?: string; handOverBytes?: boolean } = {},
 ): Promise<RawTable> {
   checkZipSizes(bytes, limits);
-  const result = await runWorker(bytes, options.sheet, limits);
+  const result = await runWorker(bytes, options.sheet, limits, options.handOverBytes === true);
   if (!result.ok) throw new IntakeError(result.code, result.status, result.message, result.details);
 
   const warnings: string[] = [];
