@@ -1,6 +1,9 @@
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { hashEmployeeId } from '../../../backend/src/modules/datasets/employee-id-hash';
 import { parseUpload } from '../../../backend/src/modules/datasets/parsing/parse-upload';
+import { profileColumn } from '../../../backend/src/modules/datasets/parsing/profile';
+import type { TypedColumn } from '../../../backend/src/modules/datasets/parsing/type-columns';
 import { csvBytes } from './workbook-fixtures';
 
 function staffCsv(rows: number): string {
@@ -97,5 +100,51 @@ describe('hashing employee IDs', () => {
       '5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843',
     );
     expect(hashEmployeeId('secret-a', 'QF-0001')).not.toBe(hashEmployeeId('secret-b', 'QF-0001'));
+  });
+});
+
+describe('the range and median an analyst sees in the profile', () => {
+  // Common practice: the median of an even count of numbers is the mean of the two middle values.
+  it('match sorting every value, for any column of numbers or dates with repeats and gaps', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.option(fc.integer({ min: -20, max: 20 }), { nil: null }), {
+          minLength: 1,
+          maxLength: 60,
+        }),
+        fc.boolean(),
+        (cells, asDates) => {
+          const column: TypedColumn = asDates
+            ? {
+                name: 'Start Date',
+                type: 'date',
+                dateOrder: 'not-needed',
+                values: cells.map((n) =>
+                  n === null ? null : `2025-${String((Math.abs(n) % 12) + 1).padStart(2, '0')}-01`,
+                ),
+              }
+            : {
+                name: 'Overtime Hours',
+                type: 'number',
+                values: cells.map((n) => (n === null ? null : n / 2)),
+              };
+          const present = (column.values as (number | string | null)[]).filter((v) => v !== null);
+          const sorted = asDates
+            ? [...present].sort()
+            : [...present].sort((a, b) => (a as number) - (b as number));
+          const profile = profileColumn(column, cells.length);
+          if (sorted.length === 0) {
+            expect(profile.median).toBeUndefined();
+            return;
+          }
+          const middle = Math.floor((sorted.length - 1) / 2);
+          const median =
+            !asDates && sorted.length % 2 === 0
+              ? ((sorted[middle] as number) + (sorted[middle + 1] as number)) / 2
+              : sorted[middle];
+          expect([profile.min, profile.median, profile.max]).toEqual([sorted[0], median, sorted.at(-1)]);
+        },
+      ),
+    );
   });
 });

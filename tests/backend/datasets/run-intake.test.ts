@@ -17,7 +17,7 @@ describe('reading a large upload in a worker thread', () => {
     ]);
     expect(inWorker).toEqual(inPlace);
     const staffNo = inWorker.prepared.columns.find((c) => c.name === 'Staff No');
-    expect(staffNo?.values[0]).toBe(hashEmployeeId(secret, String(data.rows[0][0])));
+    expect(JSON.parse(staffNo?.valuesJson ?? '[]')[0]).toBe(hashEmployeeId(secret, String(data.rows[0][0])));
     expect(inWorker.prepared.dropped.map((d) => d.name)).toEqual(['Full Name', 'Personal Email', 'Phone']);
   });
 

@@ -75,17 +75,14 @@ export async function insertDataset(
       mappedAt: null,
     });
     await manager.insert(Dataset, dataset);
+    // The values arrive as JSON text and go in as they are. One statement per column: measured
+    // faster than one statement carrying all columns' values.
     for (const column of input.prepared.columns) {
-      // One insert per column keeps each statement's parameters to one JSONB array.
-      await manager.insert(DatasetColumn, {
-        datasetId: dataset.id,
-        role: 'source',
-        position: column.position,
-        name: column.name,
-        type: column.type,
-        dateOrder: column.dateOrder,
-        values: column.values,
-      });
+      await manager.query(
+        `INSERT INTO "dataset_columns" ("dataset_id", "role", "position", "name", "type", "date_order", "values")
+         VALUES ($1, 'source', $2, $3, $4, $5, $6::jsonb)`,
+        [dataset.id, column.position, column.name, column.type, column.dateOrder, column.valuesJson],
+      );
     }
     await recordAudit(audit(dataset.id), manager);
     const saved = await manager.findOneByOrFail(Dataset, { id: dataset.id });

@@ -9,7 +9,11 @@ type Job = { bytes: Uint8Array; sheet?: string; limits?: Partial<IntakeLimits>; 
 
 async function run(job: Job) {
   try {
-    const parsed = await parseUpload(job.bytes, { sheet: job.sheet, limits: job.limits });
+    const parsed = await parseUpload(job.bytes, {
+      sheet: job.sheet,
+      limits: job.limits,
+      handOverBytes: true,
+    });
     const prepared = prepareForStorage(parsed, job.secret);
     parentPort?.postMessage({
       ok: true,

@@ -75,7 +75,10 @@ export function tableFromGrid(
   grid: Cell[][],
   height: number,
   limits: IntakeLimits,
-  extra: Pick<RawTable, 'dateMasks' | 'sheetName' | 'sheetNames' | 'decimalComma' | 'warnings'> = {
+  extra: Pick<RawTable, 'dateMasks' | 'sheetName' | 'sheetNames' | 'decimalComma' | 'warnings'> & {
+    /** every cell is already what normaliseCell would make of it */
+    normalised?: boolean;
+  } = {
     warnings: [],
   },
 ): RawTable {
@@ -83,10 +86,11 @@ export function tableFromGrid(
   // where each column's last value is.
   const rowHasData = new Uint8Array(height);
   const lastValue = new Int32Array(grid.length).fill(-1);
+  const normalised = extra.normalised === true;
   grid.forEach((column, c) => {
     for (let r = 0; r < height; r += 1) {
-      const value = normaliseCell(column[r]);
-      column[r] = value;
+      const value = normalised ? column[r] : normaliseCell(column[r]);
+      if (!normalised) column[r] = value;
       if (value !== null) {
         rowHasData[r] = 1;
         lastValue[c] = r;

@@ -174,8 +174,10 @@ export function detectProtectedCharacteristic(
       return { characteristic: rule.characteristic, legalBasis: rule.legalBasis };
   }
   if (column.type !== 'category') return null;
+  const values = new Set<string>();
+  for (const value of column.values) if (typeof value === 'string') values.add(value);
   const distinct = new Set<string>();
-  for (const value of column.values) if (typeof value === 'string') distinct.add(value.toLowerCase());
+  for (const value of values) distinct.add(value.toLowerCase());
   for (const rule of PROTECTED) {
     if (!rule.values) continue;
     const known = [...distinct].filter((value) => rule.values?.includes(value)).length;

@@ -21,13 +21,18 @@ export type ParsedUpload = {
  */
 export async function parseUpload(
   bytes: Uint8Array,
-  options: { sheet?: string; limits?: Partial<IntakeLimits> } = {},
+  options: {
+    sheet?: string;
+    limits?: Partial<IntakeLimits>;
+    /** the caller no longer needs `bytes`: a workbook's bytes move to the reader instead of being copied */
+    handOverBytes?: boolean;
+  } = {},
 ): Promise<ParsedUpload> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
   const detected = detectFileFormat(bytes);
   const raw =
     detected.kind === 'xlsx'
-      ? await parseXlsx(bytes, limits, { sheet: options.sheet })
+      ? await parseXlsx(bytes, limits, { sheet: options.sheet, handOverBytes: options.handOverBytes })
       : parseCsv(detected.text, limits, detected.warnings);
   const table = typeColumns(raw);
   const profile = profileTable(table);

@@ -1,5 +1,5 @@
 import { Worker } from 'node:worker_threads';
-import { type Cell, type IntakeLimits, type RawTable, tableFromGrid } from './build-table';
+import { type Cell, type IntakeLimits, normaliseCell, type RawTable, tableFromGrid } from './build-table';
 import { IntakeError, type IntakeErrorStatus } from './intake-error';
 import { checkZipSizes } from './zip-guard';
 
@@ -8,25 +8,88 @@ type WorkerResult =
       ok: true;
       sheetName: string;
       sheetNames: string[];
-      columns: Cell[][];
-      masks: Uint8Array[];
+      /** per column and row, one of KIND */
+      kinds: Uint8Array[];
+      /** the number (or date serial), or for text the index into `texts` of the column */
+      values: Float64Array[];
+      texts: string[][];
       height: number;
       errorCells: number;
     }
   | { ok: false; code: string; status: IntakeErrorStatus; message: string; details?: unknown };
 
+// Cell kinds as xlsx-worker.mjs writes them.
+const KIND = { empty: 0, number: 1, dateSerial: 2, text: 3, true: 4, false: 5 } as const;
+
 // A plain JavaScript module so that the same file runs under tsx (the server), vitest and node.
 const WORKER_URL = new URL('./xlsx-worker.mjs', import.meta.url);
+
+/** The worker's typed-array columns as cells, with a mask of the number cells that carry a date format. */
+function decodeColumns(result: Extract<WorkerResult, { ok: true }>): {
+  columns: Cell[][];
+  masks: Uint8Array[];
+} {
+  const columns: Cell[][] = [];
+  const masks: Uint8Array[] = [];
+  for (let c = 0; c < result.kinds.length; c += 1) {
+    const kinds = result.kinds[c];
+    const values = result.values[c];
+    // Trimmed once per distinct text rather than once per cell, as tableFromGrid would.
+    const texts = (result.texts[c] ?? []).map((text) =>
+      typeof text === 'string' ? normaliseCell(text) : null,
+    );
+    const column = new Array<Cell>(result.height);
+    const mask = new Uint8Array(result.height);
+    for (let r = 0; r < result.height; r += 1) {
+      switch (kinds[r]) {
+        case KIND.number:
+          column[r] = Number.isFinite(values[r]) ? values[r] : null;
+          break;
+        case KIND.dateSerial:
+          column[r] = Number.isFinite(values[r]) ? values[r] : null;
+          mask[r] = 1;
+          break;
+        case KIND.text:
+          column[r] = texts[values[r]] ?? null;
+          break;
+        case KIND.true:
+          column[r] = true;
+          break;
+        case KIND.false:
+          column[r] = false;
+          break;
+        default:
+          column[r] = null;
+      }
+    }
+    columns.push(column);
+    masks.push(mask);
+  }
+  return { columns, masks };
+}
 
 function runWorker(
   bytes: Uint8Array,
   sheet: string | undefined,
   limits: IntakeLimits,
+  handOverBytes: boolean,
 ): Promise<WorkerResult> {
   return new Promise((resolve, reject) => {
     const worker = new Worker(WORKER_URL, {
-      workerData: { bytes, sheet, maxRows: limits.maxRows, maxColumns: limits.maxColumns },
+      workerData: {
+        bytes,
+        sheet,
+        maxRows: limits.maxRows,
+        maxColumns: limits.maxColumns,
+      },
       resourceLimits: { maxOldGenerationSizeMb: limits.workbookHeapMb },
+      // Moved rather than copied when the caller is done with them (and they fill their buffer).
+      transferList:
+        handOverBytes && bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength
+          ? [bytes.buffer as ArrayBuffer]
+          : [],
+      // A plain module: it needs none of the TypeScript loader the process may have been started with.
+      execArgv: [],
       stdout: true,
       stderr: true,
     });
@@ -90,10 +153,10 @@ function runWorker(
 export async function parseXlsx(
   bytes: Uint8Array,
   limits: IntakeLimits,
-  options: { sheet?: string } = {},
+  options: { sheet?: string; handOverBytes?: boolean } = {},
 ): Promise<RawTable> {
   checkZipSizes(bytes, limits);
-  const result = await runWorker(bytes, options.sheet, limits);
+  const result = await runWorker(bytes, options.sheet, limits, options.handOverBytes === true);
   if (!result.ok) throw new IntakeError(result.code, result.status, result.message, result.details);
 
   const warnings: string[] = [];
@@ -106,8 +169,10 @@ export async function parseXlsx(
       `${result.errorCells} cell(s) held spreadsheet errors (such as #N/A or #DIV/0!) and were read as missing.`,
     );
   }
-  return tableFromGrid(result.columns, result.height, limits, {
-    dateMasks: result.masks,
+  const { columns, masks } = decodeColumns(result);
+  return tableFromGrid(columns, result.height, limits, {
+    dateMasks: masks,
+    normalised: true,
     sheetName: result.sheetName,
     sheetNames: result.sheetNames,
     warnings,

@@ -5,12 +5,28 @@ import type { TypedColumn, TypedTable } from './type-columns';
 // Enough for the mapping form to offer every reason or flag value as a checkbox.
 const TOP_CATEGORIES = 50;
 
-function medianOfSorted<T extends number | string>(sorted: T[]): T {
-  const middle = Math.floor((sorted.length - 1) / 2);
-  if (typeof sorted[0] === 'number' && sorted.length % 2 === 0) {
-    return (((sorted[middle] as number) + (sorted[middle + 1] as number)) / 2) as T;
+/**
+ * Median of the values counted in `counts`, given their distinct values in ascending order: the
+ * mean of the two middle values for numbers, the lower middle one for dates (ISO text).
+ */
+function medianOfCounted<T extends number | string>(
+  sortedKeys: ArrayLike<T>,
+  counts: Map<string | number, number>,
+  total: number,
+): T {
+  const lower = Math.floor((total - 1) / 2);
+  const wanted = typeof sortedKeys[0] === 'number' && total % 2 === 0 ? lower + 1 : lower;
+  let seen = 0;
+  let lowerValue: T | undefined;
+  for (let i = 0; i < sortedKeys.length; i += 1) {
+    const key = sortedKeys[i];
+    seen += counts.get(key) ?? 0;
+    if (lowerValue === undefined && seen > lower) lowerValue = key;
+    if (seen > wanted) {
+      return (wanted === lower ? key : ((lowerValue as number) + (key as number)) / 2) as T;
+    }
   }
-  return sorted[middle];
+  return sortedKeys[sortedKeys.length - 1];
 }
 
 export function profileColumn(column: TypedColumn, rowCount: number): ColumnProfile {
@@ -26,21 +42,23 @@ export function profileColumn(column: TypedColumn, rowCount: number): ColumnProf
     missingShare: rowCount === 0 ? 0 : missing / rowCount,
     distinct: counts.size,
   };
+  // Ranges and medians from the distinct values and their counts: far fewer to sort than rows.
+  const present = column.values.length - missing;
   if (column.type === 'number') {
-    const sorted = Float64Array.from(column.values.filter((v): v is number => v !== null)).sort();
+    const sorted = Float64Array.from(counts.keys() as IterableIterator<number>).sort();
     if (sorted.length > 0) {
       profile.min = sorted[0];
       profile.max = sorted[sorted.length - 1];
-      profile.median = medianOfSorted(Array.from(sorted));
+      profile.median = medianOfCounted(sorted, counts, present);
     }
   } else if (column.type === 'date') {
     profile.dateOrder = column.dateOrder;
     if (column.dateOrder !== 'ambiguous') {
-      const sorted = column.values.filter((v): v is string => v !== null).sort();
+      const sorted = [...(counts.keys() as IterableIterator<string>)].sort();
       if (sorted.length > 0) {
         profile.min = sorted[0];
         profile.max = sorted[sorted.length - 1];
-        profile.median = medianOfSorted(sorted);
+        profile.median = medianOfCounted(sorted, counts, present);
       }
     }
   } else if (column.type === 'category' || column.type === 'yes-no') {

@@ -80,23 +80,30 @@ function dictionary(cells: Cell[], mask: Uint8Array | null | undefined): Diction
   let present = 0;
   for (let i = 0; i < cells.length; i += 1) {
     const value = cells[i];
-    if (isMissing(value)) {
+    if (value === null) {
       ids[i] = -1;
       continue;
     }
-    present += 1;
     const isSerial = typeof value === 'number' && mask?.[i] === 1;
     const lookup = isSerial ? serials : plain;
     let id = lookup.get(value as number);
     if (id === undefined) {
-      id = keys.length;
-      keys.push(value);
-      serialFlags.push(isSerial ? 1 : 0);
-      counts.push(0);
+      // Decided once per distinct value; missing markers (NA, n/a…) are remembered as -1.
+      if (isMissing(value)) {
+        id = -1;
+      } else {
+        id = keys.length;
+        keys.push(value);
+        serialFlags.push(isSerial ? 1 : 0);
+        counts.push(0);
+      }
       lookup.set(value as number, id);
     }
     ids[i] = id;
-    counts[id] += 1;
+    if (id >= 0) {
+      counts[id] += 1;
+      present += 1;
+    }
   }
   return { keys, serial: Uint8Array.from(serialFlags), counts, ids, present };
 }

@@ -1,9 +1,12 @@
 // Runs inside a throw-away worker thread: the only place where untrusted workbook bytes meet the
 // xlsx package (its npm release has published advisories for crafted files). It sends back plain
-// data only: sheet names, and the chosen sheet as columns of string | number | boolean | null.
+// data only: sheet names, and the chosen sheet as typed-array columns (see the end of run()).
 import { parentPort, workerData } from 'node:worker_threads';
 // The mini build reads XLSX only (no legacy formats, no codepage tables): less to load, less to attack.
 import XLSX from 'xlsx/dist/xlsx.mini.min.js';
+
+// Cell kinds in the typed-array columns; the reader (parse-xlsx.ts) has the same table.
+const KIND = { empty: 0, number: 1, dateSerial: 2, text: 3, true: 4, false: 5 };
 
 function fail(code, status, message, details) {
   parentPort.postMessage({ ok: false, code, status, message, details });
@@ -132,8 +135,22 @@ function run() {
     return known;
   };
 
-  const columns = Array.from({ length: width }, () => new Array(height).fill(null));
-  const masks = Array.from({ length: width }, () => new Uint8Array(height));
+  // Each column crosses back as typed arrays (moved, not copied) plus its distinct texts: far
+  // cheaper for both threads than a structured clone of millions of cells.
+  const kinds = Array.from({ length: width }, () => new Uint8Array(height));
+  const values = Array.from({ length: width }, () => new Float64Array(height));
+  const texts = Array.from({ length: width }, () => []);
+  const textIds = Array.from({ length: width }, () => new Map());
+  const putText = (c, r, text) => {
+    let id = textIds[c].get(text);
+    if (id === undefined) {
+      id = texts[c].length;
+      texts[c].push(text);
+      textIds[c].set(text, id);
+    }
+    kinds[c][r] = KIND.text;
+    values[c][r] = id;
+  };
   let errorCells = 0;
   for (let r = 0; r < height; r += 1) {
     const row = rows[r];
@@ -145,19 +162,19 @@ function run() {
       switch (cell.t) {
         case 'n':
           if (typeof value === 'number' && Number.isFinite(value)) {
-            columns[c][r] = value;
-            if (isDateFormat(cell.z)) masks[c][r] = 1;
+            kinds[c][r] = isDateFormat(cell.z) ? KIND.dateSerial : KIND.number;
+            values[c][r] = value;
           }
           break;
         case 's':
         case 'str':
-          columns[c][r] = typeof value === 'string' ? value : String(value ?? '');
+          putText(c, r, typeof value === 'string' ? value : String(value ?? ''));
           break;
         case 'b':
-          columns[c][r] = value === true;
+          kinds[c][r] = value === true ? KIND.true : KIND.false;
           break;
         case 'd':
-          columns[c][r] = value instanceof Date ? value.toISOString().slice(0, 10) : null;
+          if (value instanceof Date) putText(c, r, value.toISOString().slice(0, 10));
           break;
         case 'e':
           errorCells += 1;
@@ -166,11 +183,12 @@ function run() {
           break;
       }
     }
+    rows[r] = undefined; // lets the cells go while the columns fill
   }
-  parentPort.postMessage(
-    { ok: true, sheetName, sheetNames, columns, masks, height, errorCells },
-    masks.map((mask) => mask.buffer),
-  );
+  parentPort.postMessage({ ok: true, sheetName, sheetNames, kinds, values, texts, height, errorCells }, [
+    ...kinds.map((column) => column.buffer),
+    ...values.map((column) => column.buffer),
+  ]);
 }
 
 try {
