@@ -8,19 +8,16 @@
  * p99 under 50 ms and no errors.
  */
 import { execFile } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
-import os from 'node:os';
+import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 import autocannon from 'autocannon';
 import { generateQuillfernExport, QUILLFERN_MAPPING } from '../backend/src/demo/quillfern.js';
 import { quillfernCsv } from '../backend/src/demo/quillfern-csv.js';
-import { loadConfig } from '../backend/src/lib/config.js';
-import { startCoppice } from '../backend/src/runtime.js';
-// @ts-expect-error: plain JavaScript helpers shared with the npm scripts
-import * as pgScripts from '../scripts/lib/pg.mjs';
+import type { Running } from '../backend/src/runtime.js';
 import type { TeamSummary } from '../shared/briefs.js';
+import { startOwnCluster } from '../tests/helpers/own-cluster.js';
 import { startSignIn } from '../tests/helpers/sign-in.js';
 import { publishDatasetBriefs } from './publish-demo.js';
 
@@ -82,7 +79,7 @@ function postgresCpuSeconds(postmaster: number): number {
   return total;
 }
 
-async function signInCookie(running: Awaited<ReturnType<typeof startCoppice>>, email: string) {
+async function signInCookie(running: Running, email: string) {
   const steps = await startSignIn(running, email, PASSWORD);
   if (!steps.callbackUrl) throw new Error(`sign-in as ${email} failed`);
   const callback = await steps.agent.get(steps.callbackUrl.pathname + steps.callbackUrl.search);
@@ -94,22 +91,8 @@ async function signInCookie(running: Awaited<ReturnType<typeof startCoppice>>, e
 }
 
 async function main(): Promise<void> {
-  const bin = pgScripts.ensurePostgres();
-  const dir = path.join(mkdtempSync(path.join(os.tmpdir(), 'coppice-bench-')), 'pg');
-  const pgPort = await pgScripts.freePort();
-  pgScripts.initCluster(bin, dir);
-  pgScripts.startCluster(bin, dir, pgPort, { fast: true });
-  pgScripts.ensureDatabase(bin, pgPort, 'coppice');
-  const config = loadConfig({
-    NODE_ENV: 'test',
-    DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
-    PORT: String(await pgScripts.freePort()),
-    IDP_PORT: String(await pgScripts.freePort()),
-    SMTP_PORT: String(await pgScripts.freePort()),
-    DATA_DIR: mkdtempSync(path.join(os.tmpdir(), 'coppice-bench-data-')),
-    LOG_LEVEL: 'warn',
-  });
-  const running = await startCoppice(config, { migrate: true, listen: true });
+  const own = await startOwnCluster('bench', { env: { LOG_LEVEL: 'warn' } });
+  const running = own.running;
   try {
     const analyst = await signInCookie(running, 'analyst@quillfern.example');
     const privacy = await signInCookie(running, 'privacy@quillfern.example');
@@ -137,7 +120,7 @@ async function main(): Promise<void> {
       ['--import', 'tsx', fileURLToPath(import.meta.url), '--load', targets[0][1], north.cookie],
       { encoding: 'utf8', timeout: 120_000, env: { ...process.env, BENCH_SECONDS: '8' } },
     );
-    const postmaster = Number(readFileSync(path.join(dir, 'postmaster.pid'), 'utf8').split('\n')[0]);
+    const postmaster = Number(readFileSync(path.join(own.dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
     for (const [name, url] of targets) {
       const cpuBefore = process.cpuUsage();
       const pgBefore = postgresCpuSeconds(postmaster);
@@ -162,8 +145,7 @@ async function main(): Promise<void> {
       );
     }
   } finally {
-    await running.stop();
-    pgScripts.removeCluster(bin, dir);
+    await own.stop();
   }
 }
 

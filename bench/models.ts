@@ -1,28 +1,15 @@
 // Model run benchmark: trains through the API (POST /api/models, then polling GET /api/models/:id)
 // on the invented demo export (2,400 rows) and on a generated 100k-row export, with the default
 // settings (5-fold cross-validation and pruning), and measures GET /api/health while the big run
-// trains (the server and this client share one process, as in the intake benchmark).
+// trains (the server and this client share one process).
 //   npm run bench:models                  demo and 100k rows
 //   npm run bench:models -- --rows 20000  another size instead of 100k
 // Goals: demo run under 3 s end to end; 100k rows under 30 s; /api/health p95 under 50 ms.
-import { mkdtempSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { parseArgs } from 'node:util';
 import type request from 'supertest';
 import { generateQuillfernExport, QUILLFERN_MAPPING } from '../backend/src/demo/quillfern';
 import { quillfernCsv } from '../backend/src/demo/quillfern-csv';
-import { loadConfig } from '../backend/src/lib/config';
-import { startCoppice } from '../backend/src/runtime';
-import {
-  ensureDatabase,
-  ensurePostgres,
-  freePort,
-  initCluster,
-  removeCluster,
-  startCluster,
-  // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
-} from '../scripts/lib/pg.mjs';
+import { startOwnCluster } from '../tests/helpers/own-cluster';
 import { signInAgent } from '../tests/helpers/sign-in';
 
 const { values } = parseArgs({ options: { rows: { type: 'string', default: '100000' } } });
@@ -68,22 +55,9 @@ function percentile(values: number[], p: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)] ?? Number.NaN;
 }
 
-const bin = ensurePostgres();
-const dir = mkdtempSync(path.join(os.tmpdir(), 'coppice-bench-'));
-const pgPort = await freePort();
-initCluster(bin, path.join(dir, 'pg'));
-startCluster(bin, path.join(dir, 'pg'), pgPort, { fast: true });
-ensureDatabase(bin, pgPort, 'coppice');
-const config = loadConfig({
-  NODE_ENV: 'test',
-  DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
-  PORT: String(await freePort()),
-  IDP_PORT: String(await freePort()),
-  SMTP_PORT: String(await freePort()),
-  DATA_DIR: path.join(dir, 'data'),
-  LOG_LEVEL: 'warn',
-});
-const running = await startCoppice(config, { migrate: true, listen: true });
+const own = await startOwnCluster('bench', { env: { LOG_LEVEL: 'warn' } });
+const running = own.running;
+const config = own.config;
 try {
   const agent = await signInAgent(running, 'analyst@quillfern.example', config.localIdp?.demoPassword ?? '');
   const privacy = await signInAgent(
@@ -119,6 +93,5 @@ try {
     `GET /api/health during training: ${latencies.length} calls, p50 ${percentile(latencies, 50).toFixed(1)} ms, p95 ${percentile(latencies, 95).toFixed(1)} ms, max ${Math.max(...latencies).toFixed(1)} ms   goal p95 < 50 ms`,
   );
 } finally {
-  await running.stop();
-  removeCluster(bin, path.join(dir, 'pg'));
+  await own.stop();
 }

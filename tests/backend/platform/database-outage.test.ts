@@ -1,31 +1,16 @@
-import { mkdtempSync } from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import pg from 'pg';
 import type request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { loadConfig } from '../../../backend/src/lib/config';
 import { logger } from '../../../backend/src/lib/logger';
-import { type Running, startCoppice } from '../../../backend/src/runtime';
-import {
-  ensureDatabase,
-  ensurePostgres,
-  freePort,
-  initCluster,
-  removeCluster,
-  startCluster,
-  stopCluster,
-  // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
-} from '../../../scripts/lib/pg.mjs';
+import type { Running } from '../../../backend/src/runtime';
 import { validCsv } from '../../helpers/hostile-files';
+import { type OwnCluster, startOwnCluster } from '../../helpers/own-cluster';
 import { signInAgent } from '../../helpers/sign-in';
 import { ACCOUNTS, DEMO_PASSWORD } from '../../helpers/test-coppice';
 
 // This file stops PostgreSQL in the middle of an upload, so it runs against a cluster of its own.
-const bin = ensurePostgres();
-const dir = path.join(mkdtempSync(path.join(os.tmpdir(), 'coppice-outage-')), 'pg');
+let own: OwnCluster;
 let running: Running;
-let pgPort: number;
 let analyst: request.Agent;
 
 async function query<T extends pg.QueryResultRow>(text: string): Promise<T[]> {
@@ -54,25 +39,13 @@ async function until(check: () => Promise<boolean>, tries = 200, ms = 50) {
 }
 
 beforeAll(async () => {
-  pgPort = await freePort();
-  initCluster(bin, dir);
-  startCluster(bin, dir, pgPort, { fast: true });
-  ensureDatabase(bin, pgPort, 'coppice');
-  const config = loadConfig({
-    NODE_ENV: 'test',
-    DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
-    PORT: String(await freePort()),
-    IDP_PORT: String(await freePort()),
-    SMTP_PORT: String(await freePort()),
-    DATA_DIR: mkdtempSync(path.join(os.tmpdir(), 'coppice-data-')),
-  });
-  running = await startCoppice(config, { migrate: true, listen: true });
+  own = await startOwnCluster('outage');
+  running = own.running;
   analyst = await signInAgent(running, ACCOUNTS.analyst, DEMO_PASSWORD);
 });
 
 afterAll(async () => {
-  await running?.stop();
-  removeCluster(bin, dir);
+  await own?.stop();
 });
 
 describe('PostgreSQL stopped in the middle of an upload', () => {
@@ -102,7 +75,7 @@ describe('PostgreSQL stopped in the middle of an upload', () => {
 
     // The outage is expected here: keep its error lines out of the test output.
     logger.level = 'fatal';
-    stopCluster(bin, dir);
+    own.stopPostgres();
     const res = await uploading;
     expect(res.status).toBe(503);
     expect(res.body.error.code).toBe('database_unavailable');
@@ -114,7 +87,7 @@ describe('PostgreSQL stopped in the middle of an upload', () => {
     expect(list.status).toBe(503);
     expect(list.body.error.code).toBe('database_unavailable');
 
-    startCluster(bin, dir, pgPort, { fast: true });
+    own.startPostgres();
     expect(await until(async () => (await analyst.get('/api/health')).status === 200)).toBe(true);
     expect(await counts()).toEqual(before);
     logger.level = 'warn';

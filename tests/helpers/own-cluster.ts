@@ -1,0 +1,71 @@
+import { mkdtempSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { type Config, loadConfig } from '../../backend/src/lib/config';
+import { type Running, startCoppice } from '../../backend/src/runtime';
+import {
+  ensureDatabase,
+  ensurePostgres,
+  freePort,
+  initCluster,
+  removeCluster,
+  startCluster,
+  stopCluster,
+  // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
+} from '../../scripts/lib/pg.mjs';
+
+export type OwnCluster = {
+  running: Running;
+  config: Config;
+  /** stops PostgreSQL under the running app (an outage) */
+  stopPostgres: () => void;
+  /** starts it again on the same port */
+  startPostgres: () => void;
+  /** the postmaster's data directory (its postmaster.pid names the server process) */
+  dataDir: string;
+  /** stops the app and removes the cluster */
+  stop: () => Promise<void>;
+};
+
+/**
+ * A Coppice on a PostgreSQL cluster of its own, for tests that stop the database and for the
+ * benchmarks: the shared test cluster must never go down under other files.
+ */
+export async function startOwnCluster(
+  name: string,
+  options: { listen?: boolean; env?: Record<string, string> } = {},
+): Promise<OwnCluster> {
+  const bin = ensurePostgres();
+  const dataDir = path.join(mkdtempSync(path.join(os.tmpdir(), `coppice-${name}-`)), 'pg');
+  const pgPort = await freePort();
+  initCluster(bin, dataDir);
+  startCluster(bin, dataDir, pgPort, { fast: true });
+  ensureDatabase(bin, pgPort, 'coppice');
+  const config = loadConfig({
+    NODE_ENV: 'test',
+    DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
+    PORT: String(await freePort()),
+    IDP_PORT: String(await freePort()),
+    SMTP_PORT: String(await freePort()),
+    DATA_DIR: mkdtempSync(path.join(os.tmpdir(), `coppice-${name}-data-`)),
+    ...options.env,
+  });
+  let running: Running;
+  try {
+    running = await startCoppice(config, { migrate: true, listen: options.listen ?? true });
+  } catch (error) {
+    removeCluster(bin, dataDir);
+    throw error;
+  }
+  return {
+    running,
+    config,
+    dataDir,
+    stopPostgres: () => stopCluster(bin, dataDir),
+    startPostgres: () => startCluster(bin, dataDir, pgPort, { fast: true }),
+    stop: async () => {
+      await running.stop();
+      removeCluster(bin, dataDir);
+    },
+  };
+}
