@@ -1,9 +1,7 @@
-import { useId } from 'react';
-import { Bar, BarChart, type BarShapeProps, CartesianGrid, LabelList, XAxis, YAxis } from 'recharts';
 import { formatPercent } from '../stat-figure';
-import { HatchPattern, isWithheldValue, svgId, WITHHELD_TEXT, type Withheld } from '../withheld';
-import { ChartBox, ChartFrame, chartColors, niceTop, percentTick } from './chart-frame';
-import { renderWithheldAwareBar } from './withheld-bar';
+import { isWithheldValue, WITHHELD_TEXT, type Withheld } from '../withheld';
+import { chartColors, niceTop, percentTick } from './chart-frame';
+import { WithheldBarChart } from './withheld-bar';
 
 export type RateEntry = {
   /** "Team Riverside", "Department North", "Organisation" */
@@ -31,7 +29,6 @@ export function RateComparison({
   height = 220,
   width,
 }: RateComparisonProps) {
-  const hatchId = svgId(useId(), 'hatch');
   const shown = rates.flatMap((r) => (isWithheldValue(r.rate) ? [] : [r.rate]));
   const top = niceTop(shown);
   const data = rates.map((r) =>
@@ -43,36 +40,16 @@ export function RateComparison({
     (r) => `${r.label}: ${isWithheldValue(r.rate) ? WITHHELD_TEXT : formatPercent(r.rate)}`,
   );
   return (
-    <ChartFrame
+    <WithheldBarChart
       title={title}
       description={description}
       summary={summary}
-      hasWithheld={data.some((d) => d.withheld)}
-    >
-      <ChartBox width={width} height={height}>
-        <BarChart data={data} margin={{ top: 20, right: 8, bottom: 4, left: 0 }}>
-          <defs>
-            <HatchPattern id={hatchId} />
-          </defs>
-          <CartesianGrid vertical={false} stroke={chartColors.grid} />
-          <XAxis dataKey="label" tick={{ fill: chartColors.text, fontSize: 12 }} />
-          <YAxis
-            domain={[0, top]}
-            tickFormatter={percentTick}
-            tick={{ fill: chartColors.text, fontSize: 12 }}
-            width={44}
-          />
-          <Bar
-            dataKey="value"
-            isAnimationActive={false}
-            shape={(props: BarShapeProps) =>
-              renderWithheldAwareBar(props, hatchId, (_, i) => fills[Math.min(i, fills.length - 1)])
-            }
-          >
-            <LabelList dataKey="text" position="top" fill={chartColors.text} fontSize={12} />
-          </Bar>
-        </BarChart>
-      </ChartBox>
-    </ChartFrame>
+      data={data}
+      top={top}
+      fillFor={(_, i) => fills[Math.min(i, fills.length - 1)]}
+      tickFormatter={percentTick}
+      height={height}
+      width={width}
+    />
   );
 }

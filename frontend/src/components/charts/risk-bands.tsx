@@ -1,9 +1,7 @@
-import { useId } from 'react';
-import { Bar, BarChart, type BarShapeProps, CartesianGrid, LabelList, XAxis, YAxis } from 'recharts';
 import { formatCount } from '../stat-figure';
-import { HatchPattern, isWithheldValue, svgId, WITHHELD_TEXT, type Withheld } from '../withheld';
-import { ChartBox, ChartFrame, chartColors } from './chart-frame';
-import { renderWithheldAwareBar } from './withheld-bar';
+import { isWithheldValue, WITHHELD_TEXT, type Withheld } from '../withheld';
+import { chartColors } from './chart-frame';
+import { WithheldBarChart } from './withheld-bar';
 
 export type RiskBand = 'low' | 'medium' | 'high';
 
@@ -37,7 +35,6 @@ export function RiskBands({
   height = 220,
   width,
 }: RiskBandsProps) {
-  const hatchId = svgId(useId(), 'hatch');
   const shown = bands.flatMap((b) => (isWithheldValue(b.count) ? [] : [b.count]));
   const top = Math.max(5, Math.ceil(Math.max(0, ...shown) * 1.15));
   const data = bands.map((b) =>
@@ -56,36 +53,16 @@ export function RiskBands({
       `${bandLabel[b.band]} risk: ${isWithheldValue(b.count) ? WITHHELD_TEXT : `${formatCount(b.count)} employees`}`,
   );
   return (
-    <ChartFrame
+    <WithheldBarChart
       title={title}
       description={description}
       summary={summary}
-      hasWithheld={data.some((d) => d.withheld)}
-    >
-      <ChartBox width={width} height={height}>
-        <BarChart data={data} margin={{ top: 20, right: 8, bottom: 4, left: 0 }}>
-          <defs>
-            <HatchPattern id={hatchId} />
-          </defs>
-          <CartesianGrid vertical={false} stroke={chartColors.grid} />
-          <XAxis dataKey="label" tick={{ fill: chartColors.text, fontSize: 12 }} />
-          <YAxis
-            domain={[0, top]}
-            allowDecimals={false}
-            tick={{ fill: chartColors.text, fontSize: 12 }}
-            width={44}
-          />
-          <Bar
-            dataKey="value"
-            isAnimationActive={false}
-            shape={(props: BarShapeProps) =>
-              renderWithheldAwareBar(props, hatchId, (payload) => bandFill[payload.band as RiskBand])
-            }
-          >
-            <LabelList dataKey="text" position="top" fill={chartColors.text} fontSize={12} />
-          </Bar>
-        </BarChart>
-      </ChartBox>
-    </ChartFrame>
+      data={data}
+      top={top}
+      fillFor={(payload) => bandFill[payload.band as RiskBand]}
+      allowDecimals={false}
+      height={height}
+      width={width}
+    />
   );
 }
