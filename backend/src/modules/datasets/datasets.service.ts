@@ -55,6 +55,8 @@ export async function uploadDataset(input: {
     sheet: input.sheet || undefined,
     limits: input.limits,
     secret: input.config.employeeIdSecret,
+    // The upload's bytes are not needed after reading: a workbook's move to the reader.
+    handOverBytes: true,
   });
   const { prepared } = parsed;
   const preparedAt = performance.now();

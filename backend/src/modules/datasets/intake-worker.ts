@@ -2,18 +2,28 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import type { IntakeLimits } from './parsing/build-table';
 import { IntakeError } from './parsing/intake-error';
-import { parseUpload } from './parsing/parse-upload';
+import { parseReadWorkbook, parseUpload } from './parsing/parse-upload';
+import type { WorkbookRead } from './parsing/parse-xlsx';
 import { prepareForStorage } from './prepare-storage';
 
-type Job = { bytes: Uint8Array; sheet?: string; limits?: Partial<IntakeLimits>; secret: string };
+/** Either the upload's bytes, or a workbook whose sheet the reader has read already. */
+type Job = {
+  bytes?: Uint8Array;
+  workbook?: WorkbookRead;
+  sheet?: string;
+  limits?: Partial<IntakeLimits>;
+  secret: string;
+};
 
 async function run(job: Job) {
   try {
-    const parsed = await parseUpload(job.bytes, {
-      sheet: job.sheet,
-      limits: job.limits,
-      handOverBytes: true,
-    });
+    const parsed = job.workbook
+      ? parseReadWorkbook(job.workbook, { limits: job.limits })
+      : await parseUpload(job.bytes ?? new Uint8Array(), {
+          sheet: job.sheet,
+          limits: job.limits,
+          handOverBytes: true,
+        });
     const prepared = prepareForStorage(parsed, job.secret);
     parentPort?.postMessage({
       ok: true,

@@ -1,8 +1,10 @@
 import { Worker } from 'node:worker_threads';
 import { AppError } from '../../lib/errors';
-import type { IntakeLimits } from './parsing/build-table';
+import { DEFAULT_LIMITS, type IntakeLimits } from './parsing/build-table';
+import { looksLikeZip } from './parsing/detect-format';
 import { IntakeError, type IntakeErrorStatus } from './parsing/intake-error';
 import { parseUpload } from './parsing/parse-upload';
+import { readWorkbook, type WorkbookRead, workbookBuffers } from './parsing/parse-xlsx';
 import { type PreparedDataset, prepareForStorage } from './prepare-storage';
 
 export type IntakeResult = {
@@ -23,18 +25,49 @@ const WORKER_URL = new URL('./intake-worker.mjs', import.meta.url);
 
 /**
  * Parses, profiles and prepares an upload in a worker thread, so that a 100k-row export does not
- * hold up other requests. The workbook reader inside it runs in a worker of its own.
+ * hold up other requests. A workbook's sheet is read first by the throw-away xlsx reader (a worker
+ * of its own); the intake worker starts only once the reader is gone, so the two never hold
+ * memory at the same time, and the sheet's arrays move to it rather than being copied.
  */
-export function runIntake(input: {
+export async function runIntake(input: {
   bytes: Uint8Array;
   sheet?: string;
   limits?: Partial<IntakeLimits>;
   secret: string;
+  /** the caller is done with `bytes`: a workbook's bytes move to the reader instead of being copied */
+  handOverBytes?: boolean;
 }): Promise<IntakeResult> {
+  if (looksLikeZip(input.bytes)) {
+    const workbook = await readWorkbook(
+      input.bytes,
+      { ...DEFAULT_LIMITS, ...input.limits },
+      { sheet: input.sheet, handOverBytes: input.handOverBytes },
+    );
+    return inIntakeWorker(
+      { workbook, limits: input.limits, secret: input.secret },
+      workbookBuffers(workbook),
+    );
+  }
+  return inIntakeWorker({
+    bytes: input.bytes,
+    sheet: input.sheet,
+    limits: input.limits,
+    secret: input.secret,
+  });
+}
+
+function inIntakeWorker(
+  job: {
+    bytes?: Uint8Array;
+    workbook?: WorkbookRead;
+    sheet?: string;
+    limits?: Partial<IntakeLimits>;
+    secret: string;
+  },
+  transferList: ArrayBuffer[] = [],
+): Promise<IntakeResult> {
   return new Promise((resolve, reject) => {
-    const worker = new Worker(WORKER_URL, {
-      workerData: { bytes: input.bytes, sheet: input.sheet, limits: input.limits, secret: input.secret },
-    });
+    const worker = new Worker(WORKER_URL, { workerData: job, transferList });
     let settled = false;
     const finish = (action: () => void) => {
       if (settled) return;

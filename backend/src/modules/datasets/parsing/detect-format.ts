@@ -20,6 +20,11 @@ function startsWith(bytes: Uint8Array, signature: number[]): boolean {
   return signature.every((byte, i) => bytes[i] === byte);
 }
 
+/** Whether the bytes start like a zip (an XLSX workbook), without reading further. */
+export function looksLikeZip(bytes: Uint8Array): boolean {
+  return startsWith(bytes, ZIP) || startsWith(bytes, EMPTY_ZIP);
+}
+
 function containsUtf16(bytes: Uint8Array, text: string): boolean {
   return Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).includes(Buffer.from(text, 'utf16le'));
 }
@@ -32,7 +37,7 @@ export function detectFileFormat(bytes: Uint8Array): DetectedFile {
   if (bytes.byteLength === 0) {
     throw new IntakeError('file_empty', 422, 'The file is empty. Export the staff list again and upload it.');
   }
-  if (startsWith(bytes, ZIP) || startsWith(bytes, EMPTY_ZIP)) return { kind: 'xlsx' };
+  if (looksLikeZip(bytes)) return { kind: 'xlsx' };
   if (startsWith(bytes, CFB)) {
     // An encrypted .xlsx is stored inside an OLE compound file with an "EncryptedPackage" stream.
     if (containsUtf16(bytes, 'EncryptedPackage') || containsUtf16(bytes, 'EncryptionInfo')) {

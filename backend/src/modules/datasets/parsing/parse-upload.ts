@@ -1,8 +1,8 @@
 import type { ColumnProfile } from '../../../../../shared/datasets';
-import { DEFAULT_LIMITS, type IntakeLimits } from './build-table';
+import { DEFAULT_LIMITS, type IntakeLimits, type RawTable } from './build-table';
 import { detectFileFormat } from './detect-format';
 import { parseCsv } from './parse-csv';
-import { parseXlsx } from './parse-xlsx';
+import { parseXlsx, tableFromWorkbook, type WorkbookRead } from './parse-xlsx';
 import { profileTable } from './profile';
 import { type TypedTable, typeColumns } from './type-columns';
 
@@ -34,6 +34,18 @@ export async function parseUpload(
     detected.kind === 'xlsx'
       ? await parseXlsx(bytes, limits, { sheet: options.sheet, handOverBytes: options.handOverBytes })
       : parseCsv(detected.text, limits, detected.warnings);
+  return finishParse(detected.kind, raw);
+}
+
+/** The same as parseUpload for a workbook whose sheet was read already (readWorkbook). */
+export function parseReadWorkbook(
+  read: WorkbookRead,
+  options: { limits?: Partial<IntakeLimits> } = {},
+): ParsedUpload {
+  return finishParse('xlsx', tableFromWorkbook(read, { ...DEFAULT_LIMITS, ...options.limits }));
+}
+
+function finishParse(format: 'xlsx' | 'csv', raw: RawTable): ParsedUpload {
   const table = typeColumns(raw);
   const profile = profileTable(table);
   const warnings = [...raw.warnings];
@@ -45,7 +57,7 @@ export async function parseUpload(
     }
   }
   return {
-    format: detected.kind,
+    format,
     table,
     profile,
     warnings,

@@ -4,19 +4,22 @@ import { IntakeError, type IntakeErrorStatus } from './intake-error';
 import { checkZipSizes } from './zip-guard';
 
 type WorkerResult =
-  | {
-      ok: true;
-      sheetName: string;
-      sheetNames: string[];
-      /** per column and row, one of KIND */
-      kinds: Uint8Array[];
-      /** the number (or date serial), or for text the index into `texts` of the column */
-      values: Float64Array[];
-      texts: string[][];
-      height: number;
-      errorCells: number;
-    }
+  | WorkbookRead
   | { ok: false; code: string; status: IntakeErrorStatus; message: string; details?: unknown };
+
+/** A sheet as the throw-away reader sends it back: typed-array columns (movable between threads). */
+export type WorkbookRead = {
+  ok: true;
+  sheetName: string;
+  sheetNames: string[];
+  /** per column and row, one of KIND */
+  kinds: Uint8Array[];
+  /** the number (or date serial), or for text the index into `texts` of the column */
+  values: Float64Array[];
+  texts: string[][];
+  height: number;
+  errorCells: number;
+};
 
 // Cell kinds as xlsx-worker.mjs writes them.
 const KIND = { empty: 0, number: 1, dateSerial: 2, text: 3, true: 4, false: 5 } as const;
@@ -25,7 +28,7 @@ const KIND = { empty: 0, number: 1, dateSerial: 2, text: 3, true: 4, false: 5 } 
 const WORKER_URL = new URL('./xlsx-worker.mjs', import.meta.url);
 
 /** The worker's typed-array columns as cells, with a mask of the number cells that carry a date format. */
-function decodeColumns(result: Extract<WorkerResult, { ok: true }>): {
+function decodeColumns(result: WorkbookRead): {
   columns: Cell[][];
   masks: Uint8Array[];
 } {
@@ -146,19 +149,28 @@ function runWorker(
 }
 
 /**
- * Reads an XLSX workbook: size checks on the zip directory first, then the xlsx package inside a
- * throw-away worker with time, memory, row and column limits. `sheet` picks a sheet by name;
- * by default the first sheet with data.
+ * Reads an XLSX workbook's sheet: size checks on the zip directory first, then the xlsx package
+ * inside a throw-away worker with time, memory, row and column limits. `sheet` picks a sheet by
+ * name; by default the first sheet with data. The result's arrays can move to another thread.
  */
-export async function parseXlsx(
+export async function readWorkbook(
   bytes: Uint8Array,
   limits: IntakeLimits,
   options: { sheet?: string; handOverBytes?: boolean } = {},
-): Promise<RawTable> {
+): Promise<WorkbookRead> {
   checkZipSizes(bytes, limits);
   const result = await runWorker(bytes, options.sheet, limits, options.handOverBytes === true);
   if (!result.ok) throw new IntakeError(result.code, result.status, result.message, result.details);
+  return result;
+}
 
+/** The transferable arrays of a read sheet, for a worker's transfer list. */
+export function workbookBuffers(read: WorkbookRead): ArrayBuffer[] {
+  return [...read.kinds, ...read.values].map((array) => array.buffer as ArrayBuffer);
+}
+
+/** A read sheet as a table: the first non-empty row is the header (see tableFromGrid). */
+export function tableFromWorkbook(result: WorkbookRead, limits: IntakeLimits): RawTable {
   const warnings: string[] = [];
   const others = result.sheetNames.filter((name) => name !== result.sheetName);
   if (others.length > 0) {
@@ -177,4 +189,13 @@ export async function parseXlsx(
     sheetNames: result.sheetNames,
     warnings,
   });
+}
+
+/** Reads an XLSX workbook into a table (readWorkbook, then tableFromWorkbook). */
+export async function parseXlsx(
+  bytes: Uint8Array,
+  limits: IntakeLimits,
+  options: { sheet?: string; handOverBytes?: boolean } = {},
+): Promise<RawTable> {
+  return tableFromWorkbook(await readWorkbook(bytes, limits, options), limits);
 }
