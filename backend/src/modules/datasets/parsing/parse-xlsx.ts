@@ -85,7 +85,8 @@ function runWorker(
         maxRows: limits.maxRows,
         maxColumns: limits.maxColumns,
       },
-      resourceLimits: { maxOldGenerationSizeMb: limits.workbookHeapMb },
+      // A small young generation: more frequent minor collections, about 20 MB less at the peak.
+      resourceLimits: { maxOldGenerationSizeMb: limits.workbookHeapMb, maxYoungGenerationSizeMb: 8 },
       // Moved rather than copied when the caller is done with them (and they fill their buffer).
       transferList:
         handOverBytes && bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength
