@@ -1,6 +1,7 @@
 import { cleanup, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it } from 'vitest';
 import { CalibrationChart } from '../../frontend/src/components/charts/calibration-chart';
+import { niceTop, shareTicks } from '../../frontend/src/components/charts/chart-frame';
 import { GainsChart } from '../../frontend/src/components/charts/gains-chart';
 import { ImportanceBars } from '../../frontend/src/components/charts/importance-bars';
 import { RateComparison } from '../../frontend/src/components/charts/rate-comparison';
@@ -45,6 +46,12 @@ describe('RateComparison', () => {
     );
     expect(screen.getByText('Team: 18.0%')).toBeTruthy();
     expect(screen.getByText('Organisation: 12.1%')).toBeTruthy();
+  });
+
+  it('labels its axis in round percentages, not quarters of the top', () => {
+    // 27.8% at most: the axis runs to 35%, ticked every 10 points rather than at 9%, 18%, 27%.
+    expect(shareTicks(niceTop([0.278, 0.222, 0.148]))).toEqual([0, 0.1, 0.2, 0.3]);
+    expect(shareTicks(0.15)).toEqual([0, 0.05, 0.1, 0.15]);
   });
 });
 

@@ -59,6 +59,14 @@ export function niceTop(values: number[], step = 0.05): number {
   return Math.max(step, Math.ceil((max * 1.15) / step) * step);
 }
 
+/** Round percentage ticks from 0 up to `top` (5, 10 or 20 points apart), rather than quarters of it. */
+export function shareTicks(top: number): number[] {
+  const step = top <= 0.2 ? 0.05 : top <= 0.5 ? 0.1 : 0.2;
+  const ticks: number[] = [];
+  for (let i = 0; i * step <= top + 1e-9; i += 1) ticks.push(Math.round(i * step * 100) / 100);
+  return ticks;
+}
+
 export type ChartBoxProps = {
   /** a fixed width in pixels; without it the chart fills its container's width */
   width?: number;

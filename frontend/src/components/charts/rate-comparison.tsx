@@ -1,6 +1,6 @@
 import { formatPercent } from '../stat-figure';
 import { isWithheldValue, WITHHELD_TEXT, type Withheld } from '../withheld';
-import { chartColors, niceTop, percentTick } from './chart-frame';
+import { chartColors, niceTop, percentTick, shareTicks } from './chart-frame';
 import { WithheldBarChart } from './withheld-bar';
 
 export type RateEntry = {
@@ -48,6 +48,7 @@ export function RateComparison({
       top={top}
       fillFor={(_, i) => fills[Math.min(i, fills.length - 1)]}
       tickFormatter={percentTick}
+      ticks={shareTicks(top)}
       height={height}
       width={width}
     />

@@ -62,6 +62,8 @@ export type WithheldBarChartProps = {
   top: number;
   fillFor: (payload: Record<string, unknown>, index: number) => string;
   tickFormatter?: (value: number) => string;
+  /** the value axis's ticks; by default recharts chooses */
+  ticks?: number[];
   allowDecimals?: boolean;
   height: number;
   width?: number;
@@ -76,6 +78,7 @@ export function WithheldBarChart({
   top,
   fillFor,
   tickFormatter,
+  ticks,
   allowDecimals,
   height,
   width,
@@ -98,6 +101,7 @@ export function WithheldBarChart({
           <YAxis
             domain={[0, top]}
             tickFormatter={tickFormatter}
+            ticks={ticks}
             allowDecimals={allowDecimals}
             tick={{ fill: chartColors.text, fontSize: 12 }}
             width={44}
