@@ -1,23 +1,13 @@
 // `npm run bench:load`: load on loopback against one Coppice app process (with its own throw-away
 // PostgreSQL), bounded in time. Prints requests/s, latency percentiles and errors per scenario.
 // BENCH_SECONDS (default 30) and BENCH_CONNECTIONS (default 200) shorten or lighten a run.
-import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
-import path from 'node:path';
 import autocannon from 'autocannon';
 import request from 'supertest';
 import { generateQuillfernExport } from '../backend/src/demo/quillfern';
 import { quillfernCsv } from '../backend/src/demo/quillfern-csv';
-import {
-  ensureDatabase,
-  ensurePostgres,
-  freePort,
-  initCluster,
-  removeCluster,
-  startCluster,
-  // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
-} from '../scripts/lib/pg.mjs';
-import { signInAcross, spawnCoppice } from '../tests/helpers/processes';
+import { spawnOnOwnCluster } from '../tests/helpers/own-cluster';
+import { signInAcross } from '../tests/helpers/processes';
 import { publishDatasetBriefs } from './publish-demo';
 
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 30);
@@ -58,29 +48,7 @@ async function hammer(
 }
 
 async function main() {
-  const bin = ensurePostgres();
-  const dir = path.join(mkdtempSync(path.join(os.tmpdir(), 'coppice-bench-')), 'pg');
-  const pgPort = await freePort();
-  initCluster(bin, dir);
-  startCluster(bin, dir, pgPort, { fast: true });
-  ensureDatabase(bin, pgPort, 'coppice');
-  const port = await freePort();
-  const url = `http://127.0.0.1:${port}`;
-  const app = await spawnCoppice(
-    'server',
-    {
-      NODE_ENV: 'development',
-      DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
-      PORT: String(port),
-      IDP_PORT: String(await freePort()),
-      SMTP_PORT: String(await freePort()),
-      DATA_DIR: mkdtempSync(path.join(os.tmpdir(), 'coppice-bench-data-')),
-      LOG_LEVEL: 'warn',
-      AUTH_RATE_LIMIT: '10000',
-    },
-    /Coppice is running at/,
-    180_000,
-  );
+  const { url, stop } = await spawnOnOwnCluster('bench', { AUTH_RATE_LIMIT: '10000' });
   try {
     const analyst = (await signInAcross(url, url, 'analyst@quillfern.example')).cookie;
     const manager = (await signInAcross(url, url, 'manager.north@quillfern.example')).cookie;
@@ -160,8 +128,7 @@ async function main() {
         .join(' ')}\n`,
     );
   } finally {
-    await app.stop();
-    removeCluster(bin, dir);
+    await stop();
   }
 }
 

@@ -6,7 +6,7 @@
 //   npm run bench:intake -- --rows 10000 --formats csv   only some sizes and formats
 // Goals: 100k-row XLSX profiled and stored in under 20 s, CSV under 8 s, server peak under 1 GB.
 // The machine is shared: CPU seconds and the load average are printed beside the wall times.
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, renameSync, writeFileSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import { parseArgs } from 'node:util';
@@ -18,16 +18,8 @@ import {
 } from '../backend/src/demo/quillfern';
 import { quillfernCsv } from '../backend/src/demo/quillfern-csv';
 import { quillfernXlsx } from '../backend/src/demo/quillfern-xlsx';
-import { signInAcross, spawnCoppice } from '../tests/helpers/processes';
-import {
-  ensureDatabase,
-  ensurePostgres,
-  freePort,
-  initCluster,
-  removeCluster,
-  startCluster,
-  // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
-} from './lib/pg.mjs';
+import { spawnOnOwnCluster } from '../tests/helpers/own-cluster';
+import { signInAcross } from '../tests/helpers/processes';
 
 const { values } = parseArgs({
   options: {
@@ -110,28 +102,7 @@ const load = () =>
     .map((n) => n.toFixed(2))
     .join(' ');
 
-const bin = ensurePostgres();
-const dir = mkdtempSync(path.join(os.tmpdir(), 'coppice-bench-'));
-const pgPort = await freePort();
-initCluster(bin, path.join(dir, 'pg'));
-startCluster(bin, path.join(dir, 'pg'), pgPort, { fast: true });
-ensureDatabase(bin, pgPort, 'coppice');
-const port = await freePort();
-const url = `http://127.0.0.1:${port}`;
-const server = await spawnCoppice(
-  'server',
-  {
-    NODE_ENV: 'development',
-    DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
-    PORT: String(port),
-    IDP_PORT: String(await freePort()),
-    SMTP_PORT: String(await freePort()),
-    DATA_DIR: path.join(dir, 'data'),
-    LOG_LEVEL: 'info',
-  },
-  /Coppice is running at/,
-  180_000,
-);
+const { url, server, stop } = await spawnOnOwnCluster('bench', { LOG_LEVEL: 'info' });
 const pid = server.child.pid ?? 0;
 try {
   const { cookie } = await signInAcross(url, url, 'analyst@quillfern.example');
@@ -175,6 +146,5 @@ try {
     }
   }
 } finally {
-  await server.stop();
-  removeCluster(bin, path.join(dir, 'pg'));
+  await stop();
 }

@@ -13,6 +13,7 @@ import {
   stopCluster,
   // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
 } from '../../scripts/lib/pg.mjs';
+import { type CoppiceProcess, spawnCoppice } from './processes';
 
 export type OwnCluster = {
   running: Running;
@@ -65,6 +66,54 @@ export async function startOwnCluster(
     startPostgres: () => startCluster(bin, dataDir, pgPort, { fast: true }),
     stop: async () => {
       await running.stop();
+      removeCluster(bin, dataDir);
+    },
+  };
+}
+
+/**
+ * `backend/src/server.ts` as a process of its own (as `npm run serve` runs it, development mode with
+ * the local identity provider and mail sink) on a PostgreSQL cluster of its own: for benchmarks
+ * that measure the server apart from the load they put on it.
+ */
+export async function spawnOnOwnCluster(
+  name: string,
+  env: Record<string, string> = {},
+): Promise<{ url: string; server: CoppiceProcess; stop: () => Promise<void> }> {
+  const bin = ensurePostgres();
+  const root = mkdtempSync(path.join(os.tmpdir(), `coppice-${name}-`));
+  const dataDir = path.join(root, 'pg');
+  const pgPort = await freePort();
+  initCluster(bin, dataDir);
+  startCluster(bin, dataDir, pgPort, { fast: true });
+  ensureDatabase(bin, pgPort, 'coppice');
+  const port = await freePort();
+  let server: CoppiceProcess;
+  try {
+    server = await spawnCoppice(
+      'server',
+      {
+        NODE_ENV: 'development',
+        DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
+        PORT: String(port),
+        IDP_PORT: String(await freePort()),
+        SMTP_PORT: String(await freePort()),
+        DATA_DIR: path.join(root, 'data'),
+        LOG_LEVEL: 'warn',
+        ...env,
+      },
+      /Coppice is running at/,
+      180_000,
+    );
+  } catch (error) {
+    removeCluster(bin, dataDir);
+    throw error;
+  }
+  return {
+    url: `http://127.0.0.1:${port}`,
+    server,
+    stop: async () => {
+      await server.stop();
       removeCluster(bin, dataDir);
     },
   };
