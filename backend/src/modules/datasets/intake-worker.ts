@@ -19,11 +19,7 @@ async function run(job: Job) {
   try {
     const parsed = job.workbook
       ? parseReadWorkbook(job.workbook, { limits: job.limits })
-      : await parseUpload(job.bytes ?? new Uint8Array(), {
-          sheet: job.sheet,
-          limits: job.limits,
-          handOverBytes: true,
-        });
+      : await parseUpload(job.bytes ?? new Uint8Array(), { sheet: job.sheet, limits: job.limits });
     const prepared = prepareForStorage(parsed, job.secret);
     parentPort?.postMessage({
       ok: true,

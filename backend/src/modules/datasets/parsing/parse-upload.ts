@@ -24,15 +24,13 @@ export async function parseUpload(
   options: {
     sheet?: string;
     limits?: Partial<IntakeLimits>;
-    /** the caller no longer needs `bytes`: a workbook's bytes move to the reader instead of being copied */
-    handOverBytes?: boolean;
   } = {},
 ): Promise<ParsedUpload> {
   const limits = { ...DEFAULT_LIMITS, ...options.limits };
   const detected = detectFileFormat(bytes);
   const raw =
     detected.kind === 'xlsx'
-      ? await parseXlsx(bytes, limits, { sheet: options.sheet, handOverBytes: options.handOverBytes })
+      ? await parseXlsx(bytes, limits, { sheet: options.sheet })
       : parseCsv(detected.text, limits, detected.warnings);
   return finishParse(detected.kind, raw);
 }

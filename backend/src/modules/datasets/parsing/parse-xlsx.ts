@@ -196,7 +196,7 @@ export function tableFromWorkbook(result: WorkbookRead, limits: IntakeLimits): R
 export async function parseXlsx(
   bytes: Uint8Array,
   limits: IntakeLimits,
-  options: { sheet?: string; handOverBytes?: boolean } = {},
+  options: { sheet?: string } = {},
 ): Promise<RawTable> {
   return tableFromWorkbook(await readWorkbook(bytes, limits, options), limits);
 }
