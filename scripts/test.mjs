@@ -65,6 +65,8 @@ try {
       }) && ok;
     ok = step('build the web app (vite)', 'npx', ['vite', 'build', '--logLevel', 'warn']) && ok;
   }
+  // The tests that start Coppice processes (scale-out) run the server as production does.
+  ok = step('build the server (esbuild)', process.execPath, ['scripts/build-server.mjs']) && ok;
   const report = path.join(path.dirname(dir), 'vitest-report.json');
   ok =
     step('tests (vitest: node, web, e2e)', 'npx', [

@@ -1,12 +1,14 @@
 import { type ChildProcess, spawn } from 'node:child_process';
+import { existsSync } from 'node:fs';
 import request from 'supertest';
 import { CookieJar, followAtProvider } from './sign-in';
 
 export type CoppiceProcess = { child: ChildProcess; output: () => string; stop: () => Promise<void> };
 
 /**
- * Starts `backend/src/server.ts` or `backend/src/worker.ts` as a process of its own (as `npm run
- * serve` / `npm run worker` do) and resolves once its output matches `ready`.
+ * Starts the built app server or job worker (`dist/server/server.js`, `dist/server/worker.js`) as a
+ * process of its own, as `npm run serve` / `npm run worker` do, and resolves once its output
+ * matches `ready`.
  */
 export function spawnCoppice(
   entry: 'server' | 'worker',
@@ -14,7 +16,12 @@ export function spawnCoppice(
   ready: RegExp,
   timeoutMs = 60_000,
 ): Promise<CoppiceProcess> {
-  const child = spawn(process.execPath, ['--import', 'tsx', `backend/src/${entry}.ts`], {
+  // The built bundles, as production runs them (npm test builds them first; see scripts/build-server.mjs).
+  const bundle = `dist/server/${entry}.js`;
+  if (!existsSync(bundle)) {
+    return Promise.reject(new Error(`${bundle} is missing: run \`npm run build:server\` first.`));
+  }
+  const child = spawn(process.execPath, ['--enable-source-maps', bundle], {
     env: { PATH: process.env.PATH ?? '', HOME: process.env.HOME ?? '/tmp', ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });

@@ -1,25 +1,6 @@
-import { existsSync } from 'node:fs';
-import { createRequire } from 'node:module';
-import { dirname, join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { Worker } from 'node:worker_threads';
+import { startWorker } from '../lib/start-worker';
 import type { Table } from './table.js';
 import type { ModelResult, Progress, TrainOptions } from './train.js';
-
-/**
- * The worker entry. Run from TypeScript sources (tsx, vitest), a worker thread does not inherit a
- * TypeScript loader, so a small bootstrap registers tsx in the worker before importing the entry.
- */
-function startWorker(workerData: unknown): Worker {
-  const here = fileURLToPath(import.meta.url);
-  const compiled = join(dirname(here), 'train-worker.js');
-  if (!here.endsWith('.ts') && existsSync(compiled)) return new Worker(compiled, { workerData });
-  const entry = pathToFileURL(join(dirname(here), 'train-worker.ts')).href;
-  const tsxRoot = dirname(createRequire(import.meta.url).resolve('tsx/package.json'));
-  const tsxApi = pathToFileURL(join(tsxRoot, 'dist', 'esm', 'api', 'index.mjs')).href;
-  const bootstrap = `import(${JSON.stringify(tsxApi)}).then((tsx) => { tsx.register(); return import(${JSON.stringify(entry)}); });`;
-  return new Worker(bootstrap, { eval: true, workerData });
-}
 
 /**
  * Trains in a worker thread so the server stays responsive. Progress arrives through
@@ -37,7 +18,9 @@ export function trainInWorker(
       reject(new Error('Training was cancelled'));
       return;
     }
-    const worker = startWorker({ table, label: Uint8Array.from(label, (v) => (v ? 1 : 0)), options });
+    const worker = startWorker(import.meta.url, 'train-worker', {
+      workerData: { table, label: Uint8Array.from(label, (v) => (v ? 1 : 0)), options },
+    });
     let settled = false;
     const finish = (action: () => void) => {
       if (settled) return;

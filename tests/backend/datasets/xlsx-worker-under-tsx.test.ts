@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 
 const run = promisify(execFile);
 
-describe('the upload readers under tsx (how the server runs)', () => {
+describe('the upload readers under tsx (as vitest and the scripts run them; the server runs built)', () => {
   it('start their workers and read a workbook', async () => {
     const script = `
       import { generateQuillfernExport } from './backend/src/demo/quillfern';

@@ -1,8 +1,11 @@
 import PgBoss from 'pg-boss';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { generateQuillfernExport } from '../../../backend/src/demo/quillfern';
+import { quillfernXlsx } from '../../../backend/src/demo/quillfern-xlsx';
 import { MAIL_QUEUE } from '../../../backend/src/jobs/mail.job';
 import { sinkMessages } from '../../../backend/src/mail/mail-sink';
+import { INLINE_MAX_BYTES } from '../../../backend/src/modules/datasets/run-intake';
 import { ABANDONED_RUN_MESSAGE } from '../../../backend/src/modules/models/models.repository';
 // @ts-expect-error: plain JavaScript helpers shared with the npm scripts
 import { freePort } from '../../../scripts/lib/pg.mjs';
@@ -122,6 +125,21 @@ describe('two app processes and two workers on one PostgreSQL', () => {
       "SELECT count(*) AS n FROM datasets WHERE name LIKE '%invented demo data%'",
     );
     expect(Number(rows[0].n)).toBe(1);
+  });
+
+  it('reads an uploaded workbook in a built app process (its intake and workbook-reader workers)', async () => {
+    const [a] = apps;
+    const { cookie } = await signInAcross(a.url, a.url, ACCOUNTS.analyst);
+    // About 1 MB: above the size read on the request path, so both worker threads run.
+    const bytes = Buffer.from(quillfernXlsx(generateQuillfernExport({ rows: 3000, seed: 5 })));
+    expect(bytes.byteLength).toBeGreaterThan(INLINE_MAX_BYTES);
+    const upload = await request(a.url)
+      .post('/api/datasets')
+      .set('cookie', cookie)
+      .attach('file', bytes, 'quillfern.xlsx');
+    expect(upload.status, JSON.stringify(upload.body)).toBe(201);
+    expect(upload.body.rowCount).toBe(3000);
+    expect(upload.body.sheetName).toBe('Staff');
   });
 
   it('keeps both app processes answering after all of this', async () => {

@@ -1,5 +1,5 @@
-import { Worker } from 'node:worker_threads';
 import { AppError } from '../../lib/errors';
+import { startWorker } from '../../lib/start-worker';
 import { DEFAULT_LIMITS, type IntakeLimits } from './parsing/build-table';
 import { looksLikeZip } from './parsing/detect-format';
 import { IntakeError, type IntakeErrorStatus } from './parsing/intake-error';
@@ -20,8 +20,6 @@ type WorkerAnswer =
   | ({ ok: true } & IntakeResult)
   | { ok: false; code: string; status: IntakeErrorStatus; message: string; details?: unknown }
   | { ok: false; unexpected: string };
-
-const WORKER_URL = new URL('./intake-worker.mjs', import.meta.url);
 
 /**
  * Parses, profiles and prepares an upload in a worker thread, so that a 100k-row export does not
@@ -67,7 +65,7 @@ function inIntakeWorker(
   transferList: ArrayBuffer[] = [],
 ): Promise<IntakeResult> {
   return new Promise((resolve, reject) => {
-    const worker = new Worker(WORKER_URL, { workerData: job, transferList });
+    const worker = startWorker(import.meta.url, 'intake-worker', { workerData: job, transferList });
     let settled = false;
     const finish = (action: () => void) => {
       if (settled) return;
