@@ -1,8 +1,12 @@
 import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { type Config, loadConfig } from '../../backend/src/lib/config';
+import { startLocalIdp } from '../../backend/src/idp/local-idp';
+import { type Config, loadConfig, localIdpCookieKey } from '../../backend/src/lib/config';
+import { startMailSink } from '../../backend/src/mail/mail-sink';
 import { type Running, startCoppice } from '../../backend/src/runtime';
+// @ts-expect-error: a plain JavaScript build script
+import { buildServer } from '../../scripts/build-server.mjs';
 import {
   ensureDatabase,
   ensurePostgres,
@@ -72,14 +76,16 @@ export async function startOwnCluster(
 }
 
 /**
- * `backend/src/server.ts` as a process of its own (as `npm run serve` runs it, development mode with
- * the local identity provider and mail sink) on a PostgreSQL cluster of its own: for benchmarks
- * that measure the server apart from the load they put on it.
+ * The built app server as a process of its own (as `npm run serve` runs it, freshly built) on a
+ * PostgreSQL cluster of its own, for benchmarks that measure the server apart from the load they
+ * put on it. As in production, the identity provider and the mail server are not part of the
+ * measured process: the local ones run in the calling process, and the server is pointed at them.
  */
 export async function spawnOnOwnCluster(
   name: string,
   env: Record<string, string> = {},
 ): Promise<{ url: string; server: CoppiceProcess; stop: () => Promise<void> }> {
+  await buildServer();
   const bin = ensurePostgres();
   const root = mkdtempSync(path.join(os.tmpdir(), `coppice-${name}-`));
   const dataDir = path.join(root, 'pg');
@@ -88,24 +94,49 @@ export async function spawnOnOwnCluster(
   startCluster(bin, dataDir, pgPort, { fast: true });
   ensureDatabase(bin, pgPort, 'coppice');
   const port = await freePort();
+  const serverEnv = {
+    NODE_ENV: 'development',
+    DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
+    PORT: String(port),
+    IDP_PORT: String(await freePort()),
+    SMTP_PORT: String(await freePort()),
+    DATA_DIR: path.join(root, 'data'),
+    LOG_LEVEL: 'warn',
+    ...env,
+  };
+  // The same data folder gives both sides the same local secrets (client secret, cookie keys).
+  const config = loadConfig(serverEnv);
+  const local: Array<{ stop: () => Promise<void> }> = [];
   let server: CoppiceProcess;
   try {
+    if (config.localIdp) {
+      local.push(
+        await startLocalIdp({
+          port: config.localIdp.port,
+          clientId: config.oidc.clientId,
+          clientSecret: config.oidc.clientSecret,
+          redirectUris: [`${config.appUrl}/auth/callback`],
+          postLogoutRedirectUris: [`${config.appUrl}/`],
+          password: config.localIdp.demoPassword,
+          cookieKey: localIdpCookieKey(config),
+          dataDir: config.dataDir,
+        }),
+      );
+    }
+    if (config.mail.sinkPort !== null) local.push(await startMailSink(config.mail.sinkPort));
     server = await spawnCoppice(
       'server',
       {
-        NODE_ENV: 'development',
-        DATABASE_URL: `postgres://coppice@127.0.0.1:${pgPort}/coppice`,
-        PORT: String(port),
-        IDP_PORT: String(await freePort()),
-        SMTP_PORT: String(await freePort()),
-        DATA_DIR: path.join(root, 'data'),
-        LOG_LEVEL: 'warn',
-        ...env,
+        ...serverEnv,
+        OIDC_ISSUER: config.oidc.issuer,
+        OIDC_CLIENT_SECRET: config.oidc.clientSecret,
+        SMTP_URL: `smtp://127.0.0.1:${config.mail.sinkPort}`,
       },
       /Coppice is running at/,
       180_000,
     );
   } catch (error) {
+    for (const part of local) await part.stop();
     removeCluster(bin, dataDir);
     throw error;
   }
@@ -114,6 +145,7 @@ export async function spawnOnOwnCluster(
     server,
     stop: async () => {
       await server.stop();
+      for (const part of local) await part.stop();
       removeCluster(bin, dataDir);
     },
   };
