@@ -138,7 +138,12 @@ describe('reading an upload by its content', () => {
   });
 });
 
-describe('reading a workbook', () => {
+// Every case twice: read in one go, and read in parts of 64 bytes of sheet XML (a part per row
+// or so), as large sheets are read (see xlsx-worker.mjs).
+describe.each([
+  ['in one read', {}],
+  ['in parts', { workbookPartBytes: 64 }],
+])('reading a workbook %s', (_label, parts) => {
   it('reads the first sheet with data, lists the others, and keeps cached formula values', async () => {
     const bytes = workbookBytes([
       { name: 'Notes', rows: [] },
@@ -153,7 +158,7 @@ describe('reading a workbook', () => {
       },
       { name: 'Lookup', rows: [['x'], [1]] },
     ]);
-    const parsed = await parseUpload(bytes);
+    const parsed = await parseUpload(bytes, { limits: parts });
     expect(parsed.format).toBe('xlsx');
     expect(parsed.sheetName).toBe('Staff');
     expect(parsed.sheetNames).toEqual(['Notes', 'Staff', 'Lookup']);
@@ -175,9 +180,9 @@ describe('reading a workbook', () => {
         ],
       },
     ]);
-    const parsed = await parseUpload(bytes, { sheet: 'Leavers' });
+    const parsed = await parseUpload(bytes, { sheet: 'Leavers', limits: parts });
     expect(parsed.profile.map((c) => c.name)).toEqual(['Staff No', 'Reason']);
-    const error = await rejection(parseUpload(bytes, { sheet: 'Nope' }));
+    const error = await rejection(parseUpload(bytes, { sheet: 'Nope', limits: parts }));
     expect([error.status, error.code]).toEqual([422, 'sheet_not_found']);
     expect(error.message).toMatch(/Staff, Leavers/);
   });
@@ -193,20 +198,20 @@ describe('reading a workbook', () => {
         merges: ['A1:B1'],
       },
     ]);
-    const error = await rejection(parseUpload(bytes));
+    const error = await rejection(parseUpload(bytes, { limits: parts }));
     expect([error.status, error.code]).toEqual([422, 'merged_cells']);
     expect(error.message).toMatch(/A1:B1/);
   });
 
   it('refuses a password-protected workbook with a clear message', async () => {
-    const error = await rejection(parseUpload(encryptedWorkbookBytes()));
+    const error = await rejection(parseUpload(encryptedWorkbookBytes(), { limits: parts }));
     expect([error.status, error.code]).toEqual([422, 'workbook_encrypted']);
     expect(error.message).toMatch(/remove the password/);
   });
 
   it('refuses a zip that is not a workbook with 415', async () => {
     const bytes = zipSync({ 'word/document.xml': new TextEncoder().encode('<w/>') });
-    const error = await rejection(parseUpload(bytes));
+    const error = await rejection(parseUpload(bytes, { limits: parts }));
     expect([error.status, error.code]).toEqual([415, 'unsupported_file_type']);
   });
 
@@ -217,7 +222,7 @@ describe('reading a workbook', () => {
       { level: 9 },
     );
     const started = performance.now();
-    const error = await rejection(parseUpload(bomb));
+    const error = await rejection(parseUpload(bomb, { limits: parts }));
     expect([error.status, error.code]).toEqual([413, 'workbook_too_large']);
     expect(error.message).toMatch(/zip bomb/);
     // Not a speed goal: only shows that no worker was started (that alone takes longer).
@@ -226,20 +231,20 @@ describe('reading a workbook', () => {
 
   it('refuses a workbook that unpacks beyond the configured size', async () => {
     const bytes = workbookBytes([{ name: 'Staff', rows: [['Staff No'], ['QF-1']] }]);
-    const error = await rejection(parseUpload(bytes, { limits: { maxUncompressedBytes: 1000 } }));
+    const error = await rejection(parseUpload(bytes, { limits: { ...parts, maxUncompressedBytes: 1000 } }));
     expect([error.status, error.code]).toEqual([413, 'workbook_too_large']);
   });
 
   it('refuses a damaged workbook', async () => {
     const bytes = workbookBytes([{ name: 'Staff', rows: [['Staff No'], ['QF-1']] }]).slice(0, 200);
-    const error = await rejection(parseUpload(bytes));
+    const error = await rejection(parseUpload(bytes, { limits: parts }));
     expect([error.status, error.code]).toEqual([422, 'workbook_unreadable']);
   });
 
   it('refuses too many rows inside the worker (limit configurable)', async () => {
     const rows = [['Staff No'], ...Array.from({ length: 300 }, (_, i) => [`QF-${i}`])];
     const error = await rejection(
-      parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { maxRows: 100 } }),
+      parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { ...parts, maxRows: 100 } }),
     );
     expect([error.status, error.code]).toEqual([413, 'too_many_rows']);
   });
@@ -247,7 +252,7 @@ describe('reading a workbook', () => {
   it('abandons a workbook that takes longer than the time limit', async () => {
     const rows = [['Staff No'], ...Array.from({ length: 50 }, (_, i) => [`QF-${i}`])];
     const error = await rejection(
-      parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { workbookTimeoutMs: 1 } }),
+      parseUpload(workbookBytes([{ name: 'Staff', rows }]), { limits: { ...parts, workbookTimeoutMs: 1 } }),
     );
     expect([error.status, error.code]).toEqual([413, 'workbook_too_slow']);
   });

@@ -14,6 +14,8 @@ export type IntakeLimits = {
   workbookTimeoutMs: number;
   /** heap limit of the throw-away workbook reader, in megabytes */
   workbookHeapMb: number;
+  /** a sheet with more XML than this is read in parts of about this size, in bytes */
+  workbookPartBytes: number;
 };
 
 export const DEFAULT_LIMITS: IntakeLimits = {
@@ -24,6 +26,7 @@ export const DEFAULT_LIMITS: IntakeLimits = {
   maxCompressionRatio: 200,
   workbookTimeoutMs: 120_000,
   workbookHeapMb: 3072,
+  workbookPartBytes: 8 * 1024 * 1024,
 };
 
 /** A parsed upload: one header and the data as columns, with the spreadsheet row number of each row. */

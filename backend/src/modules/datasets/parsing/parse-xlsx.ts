@@ -19,6 +19,8 @@ export type WorkbookRead = {
   texts: string[][];
   height: number;
   errorCells: number;
+  /** how many parts the sheet was read in (1: in one read; see xlsx-worker.mjs) */
+  parts: number;
 };
 
 // Cell kinds as xlsx-worker.mjs writes them.
@@ -84,6 +86,7 @@ function runWorker(
         sheet,
         maxRows: limits.maxRows,
         maxColumns: limits.maxColumns,
+        partBytes: limits.workbookPartBytes,
       },
       // A small young generation: more frequent minor collections, about 20 MB less at the peak.
       resourceLimits: { maxOldGenerationSizeMb: limits.workbookHeapMb, maxYoungGenerationSizeMb: 8 },
