@@ -1,16 +1,14 @@
-import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
-import connectPgSimple from 'connect-pg-simple';
 import express, { type RequestHandler } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import session from 'express-session';
 import helmet from 'helmet';
 import type pg from 'pg';
-import { pinoHttp } from 'pino-http';
 import type { Config } from './lib/config';
 import { AppError, errorHandler, notFoundHandler } from './lib/errors';
-import { logger } from './lib/logger';
+import { requestLog } from './lib/request-log';
+import { BatchedPgStore } from './lib/session-store';
 import { auditRouter } from './modules/audit/audit.routes';
 import { authRouter } from './modules/auth/auth.routes';
 import { datasetsRouter } from './modules/datasets/datasets.routes';
@@ -49,21 +47,7 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   if (config.trustProxy)
     app.set('trust proxy', /^\d+$/.test(config.trustProxy) ? Number(config.trustProxy) : config.trustProxy);
 
-  app.use(
-    pinoHttp({
-      logger,
-      genReqId: (req, res) => {
-        const id = (req.headers['x-request-id'] as string) || randomUUID();
-        res.setHeader('x-request-id', id);
-        return id;
-      },
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      serializers: {
-        req: (req) => ({ id: req.id, method: req.method, url: req.url?.split('?')[0] }),
-        res: (res) => ({ statusCode: res.statusCode }),
-      },
-    }),
-  );
+  app.use(requestLog({ ignore: (path) => path === '/api/health' }));
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -87,18 +71,11 @@ export function createApp({ config, sessionPool, mailSink }: AppOptions): expres
   app.use(healthRouter());
 
   app.use(express.json({ limit: '1mb' }));
-  const PgStore = connectPgSimple(session);
   app.use(
     session({
       name: 'coppice.sid',
       secret: config.sessionSecret,
-      store: new PgStore({
-        pool: sessionPool,
-        tableName: 'session',
-        createTableIfMissing: false,
-        pruneSessionInterval: 600,
-        disableTouch: true,
-      }),
+      store: new BatchedPgStore({ pool: sessionPool, tableName: 'session', pruneSessionInterval: 600 }),
       resave: false,
       saveUninitialized: false,
       // A session lasts 8 hours from sign-in; not rewriting it on every request keeps reads cheap.

@@ -97,6 +97,33 @@ describe('single sign-on through the local identity provider', () => {
     expect(replay.status).toBe(401);
   });
 
+  it('reads each session on its own when many requests arrive at once (session reads are batched)', async () => {
+    const people = [ACCOUNTS.analyst, ACCOUNTS.managerNorth, ACCOUNTS.managerSouth];
+    const agents = await Promise.all(people.map((email) => coppice.signIn(email)));
+    const leaving = await coppice.signIn(ACCOUNTS.privacy);
+    const leavingCookie = leaving.jar.getCookie('coppice.sid', {
+      path: '/',
+      domain: '127.0.0.1',
+      secure: false,
+      script: false,
+    })!;
+    expect((await leaving.post('/auth/logout').set('accept', 'application/json')).status).toBe(200);
+    const calls = Array.from({ length: 15 }, () => [
+      ...agents.map((agent) => agent.get('/api/me')),
+      request(coppice.app).get('/api/me').set('cookie', `coppice.sid=${leavingCookie.value}`),
+      request(coppice.app).get('/api/me'),
+    ]).flat();
+    const answers = await Promise.all(calls);
+    for (let i = 0; i < answers.length; i += people.length + 2) {
+      people.forEach((email, j) => {
+        expect(answers[i + j]!.status).toBe(200);
+        expect(answers[i + j]!.body.email).toBe(email);
+      });
+      expect(answers[i + people.length]!.status).toBe(401);
+      expect(answers[i + people.length + 1]!.status).toBe(401);
+    }
+  });
+
   it('records sign-ins in the audit trail without personal data beyond the actor', async () => {
     await coppice.signIn(ACCOUNTS.managerSouth);
     const rows = await coppice.sql<{ action: string; actor_email: string }>(

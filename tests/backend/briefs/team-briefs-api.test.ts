@@ -187,6 +187,42 @@ describe('GET /api/teams/:id/brief', () => {
     expect(audit.at(-1)!.details).toMatchObject({ preview: true });
   });
 
+  it('answers many managers at once (the reads are batched) with each their own, and audits every view', async () => {
+    const northTeam = ((await north.get('/api/teams')).body as TeamSummary[]).find((t) => !t.withheld)!;
+    const southAll = ((await south.get('/api/teams')).body as TeamSummary[]).map((t) => t.id).sort();
+    const southTeam = ((await south.get('/api/teams')).body as TeamSummary[]).find((t) => !t.withheld)!;
+    const before = await coppice.sql<{ actor_email: string; object_id: string; n: number }>(
+      `SELECT actor_email, object_id, count(*)::int AS n FROM audit_events WHERE action = 'brief.view' GROUP BY 1, 2`,
+    );
+    const views = (email: string, id: string) =>
+      before.find((row) => row.actor_email === email && row.object_id === id)?.n ?? 0;
+    // 60 requests in flight together: own briefs, the other manager's brief, team lists.
+    const calls = Array.from({ length: 20 }, () => [
+      north.get(`/api/teams/${northTeam.id}/brief`),
+      south.get(`/api/teams/${southTeam.id}/brief`),
+      north.get(`/api/teams/${southTeam.id}/brief`),
+      south.get('/api/teams'),
+    ]).flat();
+    const answers = await Promise.all(calls);
+    for (let i = 0; i < answers.length; i += 4) {
+      expect(answers[i]!.status).toBe(200);
+      expect(answers[i]!.body.team.id).toBe(northTeam.id);
+      expect(answers[i + 1]!.status).toBe(200);
+      expect(answers[i + 1]!.body.team.id).toBe(southTeam.id);
+      expect(answers[i + 2]!.status).toBe(403);
+      expect((answers[i + 3]!.body as TeamSummary[]).map((t) => t.id).sort()).toEqual(southAll);
+    }
+    const after = await coppice.sql<{ actor_email: string; object_id: string; n: number }>(
+      `SELECT actor_email, object_id, count(*)::int AS n FROM audit_events WHERE action = 'brief.view' GROUP BY 1, 2`,
+    );
+    const viewsAfter = (email: string, id: string) =>
+      after.find((row) => row.actor_email === email && row.object_id === id)?.n ?? 0;
+    expect(viewsAfter(DEMO_MANAGER_NORTH, northTeam.id) - views(DEMO_MANAGER_NORTH, northTeam.id)).toBe(20);
+    expect(viewsAfter(DEMO_MANAGER_SOUTH, southTeam.id) - views(DEMO_MANAGER_SOUTH, southTeam.id)).toBe(20);
+    // The refused ones left no view line for the team they were not allowed to see.
+    expect(viewsAfter(DEMO_MANAGER_NORTH, southTeam.id)).toBe(views(DEMO_MANAGER_NORTH, southTeam.id));
+  });
+
   it('exports the brief as formula-safe CSV with the caution', async () => {
     const team = ((await north.get('/api/teams')).body as TeamSummary[]).find((t) => !t.withheld)!;
     const res = await north.get(`/api/teams/${team.id}/brief.csv`);

@@ -3,6 +3,7 @@ import type { PublicationResponse, PublicationStatus, TeamSummary } from '../../
 import type { ComputedTeam } from '../../analysis/team-briefs';
 import { Publication } from '../../entities/publication.entity';
 import { TeamBriefRecord } from '../../entities/team-brief.entity';
+import { batched } from '../../lib/batch';
 import { db } from '../../lib/db';
 import { type AuditEntry, recordAudit } from '../audit/audit.repository';
 
@@ -241,46 +242,84 @@ function summaryOf(row: TeamListRow): TeamSummary {
   };
 }
 
-/** Teams of published briefs: all of them, or those of one manager e-mail (plain SQL: a hot read). */
-export async function listPublishedTeams(managerEmail?: string): Promise<TeamSummary[]> {
-  const rows: TeamListRow[] = await db().query(
-    `SELECT t.id, t.name, t.department, t.withheld, t.headcount, t.summary, p.published_at AS "publishedAt"
+/**
+ * Teams of published briefs for concurrent callers at once: each caller asks for all teams (null)
+ * or one manager e-mail's, and one query answers the batch (plain SQL: the hottest read after the
+ * brief).
+ */
+const listTeamsBatched = batched(async (emails: (string | null)[]) => {
+  const wanted = [...new Set(emails.filter((email): email is string => email !== null))];
+  const rows: (TeamListRow & { managerEmail: string | null })[] = await db().query(
+    `SELECT t.id, t.name, t.department, t.withheld, t.headcount, t.summary, p.published_at AS "publishedAt",
+            t.manager_email AS "managerEmail"
        FROM team_briefs t JOIN publications p ON p.id = t.publication_id
-      WHERE p.status = 'published' AND ($1::text IS NULL OR t.manager_email = $1)
+      WHERE p.status = 'published' AND ($1::boolean OR t.manager_email = ANY($2::text[]))
       ORDER BY t.department ASC NULLS LAST, t.name ASC`,
-    [managerEmail ?? null],
+    [emails.includes(null), wanted],
   );
-  return rows.map(summaryOf);
+  const summaries = rows.map((row) => ({ email: row.managerEmail, summary: summaryOf(row) }));
+  return emails.map((email) =>
+    summaries.filter((row) => email === null || row.email === email).map((row) => row.summary),
+  );
+});
+
+/** Teams of published briefs: all of them, or those of one manager e-mail. */
+export function listPublishedTeams(managerEmail?: string): Promise<TeamSummary[]> {
+  return listTeamsBatched(managerEmail ?? null);
 }
 
-/**
- * The JSON text of a published brief the viewer may open (their own team, or any team when
- * `preview`), with its `brief.view` audit line written by the same statement: one round trip on
- * the path every manager takes. Null when the brief is unknown, withdrawn or not the viewer's;
- * the caller then works out which, and audits the refusal.
- */
-export async function viewPublishedBriefText(input: {
+type BriefViewRequest = {
   id: string;
   viewer: { id: string; email: string };
   managerEmail: string;
   preview: boolean;
   format: 'json' | 'csv';
-}): Promise<string | null> {
-  const rows: { brief: string }[] = await db().query(
-    `WITH b AS (
-       SELECT t.id, t.publication_id, t.brief
-         FROM team_briefs t JOIN publications p ON p.id = t.publication_id
-        WHERE t.id = $1 AND p.status = 'published' AND ($2::boolean OR t.manager_email = $3)
+};
+
+/**
+ * Brief views of concurrent requests in one statement: each brief the viewer may open is read and
+ * its `brief.view` audit line written by the same statement, so no brief leaves without its audit
+ * line committed, and one round trip serves the whole batch.
+ */
+const viewBriefsBatched = batched(async (views: BriefViewRequest[]) => {
+  const rows: { n: string; brief: string }[] = await db().query(
+    `WITH input AS (
+       SELECT * FROM unnest($1::uuid[], $2::boolean[], $3::text[], $4::uuid[], $5::text[], $6::text[])
+              WITH ORDINALITY AS i(team_id, preview, manager_email, actor_id, actor_email, format, n)
+     ), b AS (
+       SELECT i.n, t.id, t.publication_id, t.brief, i.preview, i.actor_id, i.actor_email, i.format
+         FROM input i
+         JOIN team_briefs t ON t.id = i.team_id
+         JOIN publications p ON p.id = t.publication_id
+        WHERE p.status = 'published' AND (i.preview OR t.manager_email = i.manager_email)
      ), audited AS (
        INSERT INTO audit_events (actor_id, actor_email, action, object_type, object_id, details)
-       SELECT $4, $5, 'brief.view', 'team', b.id::text,
-              jsonb_build_object('publicationId', b.publication_id, 'preview', $2::boolean, 'format', $6::text)
-         FROM b
+       SELECT b.actor_id, b.actor_email, 'brief.view', 'team', b.id::text,
+              jsonb_build_object('publicationId', b.publication_id, 'preview', b.preview, 'format', b.format)
+         FROM b ORDER BY b.n
      )
-     SELECT b.brief::text AS brief FROM b`,
-    [input.id, input.preview, input.managerEmail, input.viewer.id, input.viewer.email, input.format],
+     SELECT b.n::text AS n, b.brief::text AS brief FROM b`,
+    [
+      views.map((v) => v.id),
+      views.map((v) => v.preview),
+      views.map((v) => v.managerEmail),
+      views.map((v) => v.viewer.id),
+      views.map((v) => v.viewer.email),
+      views.map((v) => v.format),
+    ],
   );
-  return rows[0]?.brief ?? null;
+  const byIndex = new Map(rows.map((row) => [Number(row.n), row.brief]));
+  return views.map((_view, i) => byIndex.get(i + 1) ?? null);
+});
+
+/**
+ * The JSON text of a published brief the viewer may open (their own team, or any team when
+ * `preview`), with its `brief.view` audit line written by the same statement. Null when the brief
+ * is unknown, withdrawn or not the viewer's; the caller then works out which, and audits the
+ * refusal. `id` must be a UUID (the caller checks).
+ */
+export function viewPublishedBriefText(input: BriefViewRequest): Promise<string | null> {
+  return viewBriefsBatched(input);
 }
 
 /** Every manager e-mail with at least one team in a publication. */
