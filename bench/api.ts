@@ -1,6 +1,6 @@
 /**
  * Benchmark of the team brief endpoints (not a test): `npm run bench:api`. Starts a throw-away
- * PostgreSQL and a Coppice on loopback, publishes the briefs of the invented demo export through
+ * PostgreSQL and the built Coppice server in a process of its own on loopback, publishes the briefs of the invented demo export through
  * the API (approval, a model run, publication request, publishing), then
  * loads `GET /api/teams/:id/brief` and `GET /api/teams` as manager.north with autocannon (in a
  * child process, so that load and server do not share an event loop): 50 connections for 20 s
@@ -9,21 +9,21 @@
  */
 import { execFile } from 'node:child_process';
 import { readdirSync, readFileSync } from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 import autocannon from 'autocannon';
+import request from 'supertest';
 import { generateQuillfernExport, QUILLFERN_MAPPING } from '../backend/src/demo/quillfern.js';
 import { quillfernCsv } from '../backend/src/demo/quillfern-csv.js';
-import type { Running } from '../backend/src/runtime.js';
 import type { TeamSummary } from '../shared/briefs.js';
-import { startOwnCluster } from '../tests/helpers/own-cluster.js';
-import { startSignIn } from '../tests/helpers/sign-in.js';
+import { spawnOnOwnCluster } from '../tests/helpers/own-cluster.js';
+import { signInAcross } from '../tests/helpers/processes.js';
 import { publishDatasetBriefs } from './publish-demo.js';
 
 const CONNECTIONS = 50;
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 20);
-const PASSWORD = process.env.DEMO_PASSWORD ?? 'quillfern-demo';
 
 type LoadResult = {
   requestsPerSecond: number;
@@ -79,62 +79,75 @@ function postgresCpuSeconds(postmaster: number): number {
   return total;
 }
 
-async function signInCookie(running: Running, email: string) {
-  const steps = await startSignIn(running, email, PASSWORD);
-  if (!steps.callbackUrl) throw new Error(`sign-in as ${email} failed`);
-  const callback = await steps.agent.get(steps.callbackUrl.pathname + steps.callbackUrl.search);
-  const cookie = (callback.headers['set-cookie'] as unknown as string[]).find((c) =>
-    c.startsWith('coppice.sid='),
+/** CPU seconds (user + system, all threads) used so far by process `pid`. */
+function processCpuSeconds(pid: number): number {
+  const stat = readFileSync(`/proc/${pid}/stat`, 'utf8');
+  const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+  return (Number(fields[11]) + Number(fields[12])) / 100;
+}
+
+/** Runs the load generator in a child process against `url`; its result. */
+async function loadFrom(url: string, cookie: string, seconds = SECONDS): Promise<LoadResult> {
+  const child = await promisify(execFile)(
+    process.execPath,
+    ['--import', 'tsx', fileURLToPath(import.meta.url), '--load', url, cookie],
+    {
+      encoding: 'utf8',
+      timeout: (seconds + 60) * 1000,
+      env: { ...process.env, BENCH_SECONDS: String(seconds) },
+    },
   );
-  if (!cookie) throw new Error('no session cookie');
-  return { agent: steps.agent, cookie: cookie.split(';')[0]! };
+  return JSON.parse(child.stdout.trim().split('\n').at(-1)!) as LoadResult;
 }
 
 async function main(): Promise<void> {
-  const own = await startOwnCluster('bench', { env: { LOG_LEVEL: 'warn' } });
-  const running = own.running;
+  // The built server in a process of its own, as production runs it (identity provider and mail
+  // sink outside it), on a PostgreSQL cluster of its own.
+  const { url, server, dataDir, stop } = await spawnOnOwnCluster('bench-api');
+  const pid = server.child.pid ?? 0;
   try {
-    const analyst = await signInCookie(running, 'analyst@quillfern.example');
-    const privacy = await signInCookie(running, 'privacy@quillfern.example');
-    const upload = await analyst.agent
+    const analyst = (await signInAcross(url, url, 'analyst@quillfern.example')).cookie;
+    const privacy = (await signInAcross(url, url, 'privacy@quillfern.example')).cookie;
+    const upload = await request(url)
       .post('/api/datasets')
+      .set('cookie', analyst)
       .attach(
         'file',
         Buffer.from(quillfernCsv(generateQuillfernExport({ rows: 2400 })), 'utf8'),
         'quillfern.csv',
       );
+    if (upload.status !== 201)
+      throw new Error(`upload answered ${upload.status}: ${upload.text.slice(0, 300)}`);
     const datasetId = upload.body.id as string;
-    await analyst.agent.put(`/api/datasets/${datasetId}/mapping`).send(QUILLFERN_MAPPING);
-    await publishDatasetBriefs(running.url, { analyst: analyst.cookie, privacy: privacy.cookie }, datasetId);
-    const north = await signInCookie(running, 'manager.north@quillfern.example');
-    const teams = (await north.agent.get('/api/teams')).body as TeamSummary[];
+    await request(url)
+      .put(`/api/datasets/${datasetId}/mapping`)
+      .set('cookie', analyst)
+      .send(QUILLFERN_MAPPING);
+    await publishDatasetBriefs(url, { analyst, privacy }, datasetId);
+    const north = (await signInAcross(url, url, 'manager.north@quillfern.example')).cookie;
+    const teams = (await request(url).get('/api/teams').set('cookie', north)).body as TeamSummary[];
     const team = teams.find((t) => !t.withheld)!;
     const targets = [
-      ['GET /api/teams/:id/brief', `${running.url}/api/teams/${team.id}/brief`],
-      ['GET /api/teams', `${running.url}/api/teams`],
+      ['GET /api/teams/:id/brief', `${url}/api/teams/${team.id}/brief`],
+      ['GET /api/teams', `${url}/api/teams`],
     ] as const;
+    console.log(
+      `Node ${process.version}, ${os.cpus().length} cores; load average at start ${os
+        .loadavg()
+        .map((n) => n.toFixed(2))
+        .join(' ')}; ${CONNECTIONS} connections, ${SECONDS} s per endpoint`,
+    );
     // Warm-up, not measured: 8 s of the same load on the brief, so that compilation, the
     // publishing e-mails and PostgreSQL's first visits to the new tables are not in the figures.
-    await promisify(execFile)(
-      process.execPath,
-      ['--import', 'tsx', fileURLToPath(import.meta.url), '--load', targets[0][1], north.cookie],
-      { encoding: 'utf8', timeout: 120_000, env: { ...process.env, BENCH_SECONDS: '8' } },
-    );
-    const postmaster = Number(readFileSync(path.join(own.dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
-    for (const [name, url] of targets) {
-      const cpuBefore = process.cpuUsage();
+    await loadFrom(targets[0][1], north, 8);
+    const postmaster = Number(readFileSync(path.join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0]);
+    for (const [name, target] of targets) {
+      const appBefore = processCpuSeconds(pid);
       const pgBefore = postgresCpuSeconds(postmaster);
-      // Asynchronous on purpose: this process serves the requests meanwhile.
-      const child = await promisify(execFile)(
-        process.execPath,
-        ['--import', 'tsx', fileURLToPath(import.meta.url), '--load', url, north.cookie],
-        { encoding: 'utf8', timeout: (SECONDS + 60) * 1000 },
-      );
-      const r = JSON.parse(child.stdout.trim().split('\n').at(-1)!) as LoadResult;
-      const cpu = process.cpuUsage(cpuBefore);
+      const r = await loadFrom(target, north);
       const requests = r.requestsPerSecond * SECONDS;
       // CPU per request shows the cost even when other work shares the machine.
-      const appMs = ((cpu.user + cpu.system) / 1000 / requests).toFixed(2);
+      const appMs = (((processCpuSeconds(pid) - appBefore) * 1000) / requests).toFixed(2);
       const pgMs = (((postgresCpuSeconds(postmaster) - pgBefore) * 1000) / requests).toFixed(2);
       const verdict =
         r.requestsPerSecond > 0 && r.p99 < 50 && r.errors === 0 && r.non2xx === 0
@@ -145,7 +158,7 @@ async function main(): Promise<void> {
       );
     }
   } finally {
-    await own.stop();
+    await stop();
   }
 }
 

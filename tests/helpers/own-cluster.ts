@@ -84,7 +84,7 @@ export async function startOwnCluster(
 export async function spawnOnOwnCluster(
   name: string,
   env: Record<string, string> = {},
-): Promise<{ url: string; server: CoppiceProcess; stop: () => Promise<void> }> {
+): Promise<{ url: string; server: CoppiceProcess; dataDir: string; stop: () => Promise<void> }> {
   await buildServer();
   const bin = ensurePostgres();
   const root = mkdtempSync(path.join(os.tmpdir(), `coppice-${name}-`));
@@ -143,6 +143,7 @@ export async function spawnOnOwnCluster(
   return {
     url: `http://127.0.0.1:${port}`,
     server,
+    dataDir,
     stop: async () => {
       await server.stop();
       for (const part of local) await part.stop();
