@@ -9,6 +9,7 @@
 // the reader holds one part's cells rather than the whole sheet's (about 780 MB for 100,000 rows
 // × 30 columns). Anything the cutter does not recognise falls back to reading the whole workbook.
 import { Buffer } from 'node:buffer';
+import os from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
 import { unzipSync, zipSync } from 'fflate';
 // The mini build reads XLSX only (no legacy formats, no codepage tables): less to load, less to attack.
@@ -388,6 +389,14 @@ function readLarge(bytes, wantedSheet, limits) {
 }
 
 function run() {
+  // Yields the CPU to the thread that answers requests (on Linux the nice value is per thread).
+  if (process.platform === 'linux') {
+    try {
+      os.setPriority(0, 10);
+    } catch {
+      // not allowed here: read at normal priority
+    }
+  }
   const { sheet: wantedSheet, maxRows, maxColumns, partBytes } = workerData;
   const bytes = workerData.bytes;
   workerData.bytes = null; // the unpacked parts replace it
