@@ -243,9 +243,9 @@ function summaryOf(row: TeamListRow): TeamSummary {
 }
 
 /**
- * Teams of published briefs for concurrent callers at once: each caller asks for all teams (null)
- * or one manager e-mail's, and one query answers the batch (plain SQL: the hottest read after the
- * brief).
+ * Teams of published briefs for concurrent callers at once, as JSON text: each caller asks for all
+ * teams (null) or one manager e-mail's; one query answers the batch, and callers asking the same
+ * share one serialised answer (plain SQL: the hottest read after the brief).
  */
 const listTeamsBatched = batched(async (emails: (string | null)[]) => {
   const wanted = [...new Set(emails.filter((email): email is string => email !== null))];
@@ -258,13 +258,21 @@ const listTeamsBatched = batched(async (emails: (string | null)[]) => {
     [emails.includes(null), wanted],
   );
   const summaries = rows.map((row) => ({ email: row.managerEmail, summary: summaryOf(row) }));
-  return emails.map((email) =>
-    summaries.filter((row) => email === null || row.email === email).map((row) => row.summary),
-  );
+  const texts = new Map<string | null, string>();
+  return emails.map((email) => {
+    let text = texts.get(email);
+    if (text === undefined) {
+      text = JSON.stringify(
+        summaries.filter((row) => email === null || row.email === email).map((row) => row.summary),
+      );
+      texts.set(email, text);
+    }
+    return text;
+  });
 });
 
-/** Teams of published briefs: all of them, or those of one manager e-mail. */
-export function listPublishedTeams(managerEmail?: string): Promise<TeamSummary[]> {
+/** Teams of published briefs as JSON text: all of them, or those of one manager e-mail. */
+export function listPublishedTeamsText(managerEmail?: string): Promise<string> {
   return listTeamsBatched(managerEmail ?? null);
 }
 

@@ -4,7 +4,7 @@ import type { Config } from '../../lib/config';
 import { currentUser, requireRole } from '../auth/auth.middleware';
 import { briefToCsv } from './brief-csv';
 import {
-  listTeams,
+  listTeamsText,
   publicationsOfRun,
   publishRun,
   viewBrief,
@@ -27,7 +27,7 @@ export function teamsRouter(config: Config): Router {
 
   router.get('/api/teams', requireRole('manager', 'analyst', 'privacy_officer'), async (req, res) => {
     res.set('Cache-Control', 'no-store');
-    res.json(await listTeams(currentUser(req)));
+    res.type('application/json').send(await listTeamsText(currentUser(req)));
   });
 
   router.get(

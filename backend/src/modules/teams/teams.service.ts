@@ -3,7 +3,6 @@ import type {
   PublicationResponse,
   PublishBody,
   TeamBriefResponse,
-  TeamSummary,
 } from '../../../../shared/briefs';
 import { treeFeatures } from '../../analysis/team-briefs';
 import { queueBriefs } from '../../jobs/briefs.job';
@@ -17,7 +16,7 @@ import {
   insertPublication,
   listLivePublications,
   listPublicationsOfRun,
-  listPublishedTeams,
+  listPublishedTeamsText,
   toPublicationResponse,
   viewPublishedBriefText,
   withdrawPublications,
@@ -88,8 +87,9 @@ export async function publicationsOfRun(modelRunId: string): Promise<Publication
 }
 
 /** `GET /api/teams`: a manager's own teams (matched on the signed-in e-mail), or every team. */
-export function listTeams(user: SessionUser): Promise<TeamSummary[]> {
-  return listPublishedTeams(maySeeAllTeams(user) ? undefined : user.email.trim().toLowerCase());
+/** The teams a user may see, as the JSON text of a TeamSummary[] (sent as it is). */
+export function listTeamsText(user: SessionUser): Promise<string> {
+  return listPublishedTeamsText(maySeeAllTeams(user) ? undefined : user.email.trim().toLowerCase());
 }
 
 /**
