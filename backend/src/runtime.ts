@@ -8,6 +8,7 @@ import { boss, startBoss, stopBoss } from './jobs/boss';
 import { QUEUES, registerWorkers } from './jobs/registry';
 import { type Config, localIdpCookieKey } from './lib/config';
 import { createDataSource, setDataSource } from './lib/db';
+import { createHttpServer } from './lib/http-server';
 import { logger } from './lib/logger';
 import { startMailSink } from './mail/mail-sink';
 import { configureMailer } from './mail/mailer';
@@ -118,8 +119,9 @@ export async function startCoppice(config: Config, options: StartOptions = {}): 
     let url = config.appUrl;
     if (listen) {
       const server: Server = await new Promise((resolve, reject) => {
-        const s = app.listen(config.port, config.host, () => resolve(s));
+        const s = createHttpServer(app);
         s.on('error', reject);
+        s.listen(config.port, config.host, () => resolve(s));
       });
       server.keepAliveTimeout = 65_000;
       stops.push(
