@@ -6,7 +6,8 @@
  * requests. `run` gets the inputs in arrival order and returns one output per input, in the same
  * order; when it fails, every call of that batch fails with its error.
  *
- * One batch at a time is the default: on the team brief at 50 connections it served 2,200–2,650
+ * One batch at a time is the default: on the team brief at 50 connections (measured before the
+ * HTTP server change in http-server.ts) it served 2,200–2,650
  * requests/s against 1,450–2,075 with two and about 1,530 with four (`npm run bench:api`).
  */
 export function batched<I, O>(
