@@ -1,9 +1,5 @@
 import type { EntityManager } from 'typeorm';
-import type {
-  PublicationResponse,
-  PublishBody,
-  TeamBriefResponse,
-} from '../../../../shared/briefs';
+import type { PublicationResponse, PublishBody, TeamBriefResponse } from '../../../../shared/briefs';
 import { treeFeatures } from '../../analysis/team-briefs';
 import { queueBriefs } from '../../jobs/briefs.job';
 import { AppError, conflict, notFound } from '../../lib/errors';
