@@ -57,6 +57,35 @@ export async function runMigrations(dataSource: DataSource): Promise<void> {
   });
 }
 
+/**
+ * The local identity provider and mail sink, where the config asks for them (development, tests
+ * and the demo; never in production). Benchmarks run them outside the server they measure.
+ */
+export async function startLocalServices(config: Config): Promise<Running['local']> {
+  const local: Running['local'] = {};
+  if (config.localIdp) {
+    local.idp = await startLocalIdp({
+      port: config.localIdp.port,
+      clientId: config.oidc.clientId,
+      clientSecret: config.oidc.clientSecret,
+      redirectUris: [`${config.appUrl}/auth/callback`],
+      postLogoutRedirectUris: [`${config.appUrl}/`],
+      password: config.localIdp.demoPassword,
+      cookieKey: localIdpCookieKey(config),
+      dataDir: config.dataDir,
+    });
+  }
+  if (config.mail.sinkPort !== null) {
+    try {
+      local.mailSink = await startMailSink(config.mail.sinkPort);
+    } catch (error) {
+      await local.idp?.stop();
+      throw error;
+    }
+  }
+  return local;
+}
+
 /** Starts everything one Coppice process needs, in order, and returns a handle that stops it all. */
 export async function startCoppice(config: Config, options: StartOptions = {}): Promise<Running> {
   const { migrate = true, seed = false, listen = true, localServices = true } = options;
@@ -69,26 +98,14 @@ export async function startCoppice(config: Config, options: StartOptions = {}): 
 
   const local: Running['local'] = {};
   try {
-    if (localServices && config.localIdp) {
-      const idp = await startLocalIdp({
-        port: config.localIdp.port,
-        clientId: config.oidc.clientId,
-        clientSecret: config.oidc.clientSecret,
-        redirectUris: [`${config.appUrl}/auth/callback`],
-        postLogoutRedirectUris: [`${config.appUrl}/`],
-        password: config.localIdp.demoPassword,
-        cookieKey: localIdpCookieKey(config),
-        dataDir: config.dataDir,
-      });
-      stops.push(idp.stop);
-      local.idp = idp;
-    }
     let mailSink = false;
-    if (localServices && config.mail.sinkPort !== null) {
-      const sink = await startMailSink(config.mail.sinkPort);
-      stops.push(sink.stop);
-      local.mailSink = sink;
-      mailSink = true;
+    if (localServices) {
+      Object.assign(local, await startLocalServices(config));
+      if (local.idp) stops.push(local.idp.stop);
+      if (local.mailSink) {
+        stops.push(local.mailSink.stop);
+        mailSink = true;
+      }
     }
     configureMailer(config);
 

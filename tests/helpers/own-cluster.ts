@@ -1,10 +1,8 @@
 import { mkdtempSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { startLocalIdp } from '../../backend/src/idp/local-idp';
-import { type Config, loadConfig, localIdpCookieKey } from '../../backend/src/lib/config';
-import { startMailSink } from '../../backend/src/mail/mail-sink';
-import { type Running, startCoppice } from '../../backend/src/runtime';
+import { type Config, loadConfig } from '../../backend/src/lib/config';
+import { type Running, startCoppice, startLocalServices } from '../../backend/src/runtime';
 // @ts-expect-error: a plain JavaScript build script
 import { buildServer } from '../../scripts/build-server.mjs';
 import {
@@ -106,24 +104,14 @@ export async function spawnOnOwnCluster(
   };
   // The same data folder gives both sides the same local secrets (client secret, cookie keys).
   const config = loadConfig(serverEnv);
-  const local: Array<{ stop: () => Promise<void> }> = [];
+  let local: Running['local'] = {};
   let server: CoppiceProcess;
+  const stopLocal = async () => {
+    await local.mailSink?.stop();
+    await local.idp?.stop();
+  };
   try {
-    if (config.localIdp) {
-      local.push(
-        await startLocalIdp({
-          port: config.localIdp.port,
-          clientId: config.oidc.clientId,
-          clientSecret: config.oidc.clientSecret,
-          redirectUris: [`${config.appUrl}/auth/callback`],
-          postLogoutRedirectUris: [`${config.appUrl}/`],
-          password: config.localIdp.demoPassword,
-          cookieKey: localIdpCookieKey(config),
-          dataDir: config.dataDir,
-        }),
-      );
-    }
-    if (config.mail.sinkPort !== null) local.push(await startMailSink(config.mail.sinkPort));
+    local = await startLocalServices(config);
     server = await spawnCoppice(
       'server',
       {
@@ -136,7 +124,7 @@ export async function spawnOnOwnCluster(
       180_000,
     );
   } catch (error) {
-    for (const part of local) await part.stop();
+    await stopLocal();
     removeCluster(bin, dataDir);
     throw error;
   }
@@ -146,7 +134,7 @@ export async function spawnOnOwnCluster(
     dataDir,
     stop: async () => {
       await server.stop();
-      for (const part of local) await part.stop();
+      await stopLocal();
       removeCluster(bin, dataDir);
     },
   };

@@ -1,6 +1,19 @@
 import request from 'supertest';
 import type { Running } from '../../backend/src/runtime';
 
+/** The session id in an agent's cookie jar, or undefined before there is a session. */
+export function sessionId(agent: request.Agent): string | undefined {
+  return agent.jar.getCookie('coppice.sid', { path: '/', domain: '127.0.0.1', secure: false, script: false })
+    ?.value;
+}
+
+/** An agent's session as a Cookie header (`coppice.sid=…`), to replay it from elsewhere. */
+export function sessionCookie(agent: request.Agent): string {
+  const id = sessionId(agent);
+  if (!id) throw new Error('no session cookie');
+  return `coppice.sid=${id}`;
+}
+
 /** A minimal cookie jar for talking to the identity provider with fetch. */
 export class CookieJar {
   private cookies = new Map<string, string>();

@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startSignIn } from '../../helpers/sign-in';
+import { sessionCookie, sessionId, startSignIn } from '../../helpers/sign-in';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
 
 let coppice: TestCoppice;
@@ -56,25 +56,11 @@ describe('single sign-on through the local identity provider', () => {
 
   it('issues a new session id at sign-in, so a session planted earlier is worthless', async () => {
     const steps = await startSignIn(coppice, ACCOUNTS.analyst, 'quillfern-demo');
-    const before = /coppice\.sid=([^;]+)/.exec(
-      String(
-        steps.agent.jar.getCookie('coppice.sid', {
-          path: '/',
-          domain: '127.0.0.1',
-          secure: false,
-          script: false,
-        }),
-      ),
-    )?.[1];
+    const before = sessionId(steps.agent);
     await steps.agent.get(steps.callbackUrl!.pathname + steps.callbackUrl!.search);
-    const afterCookie = steps.agent.jar.getCookie('coppice.sid', {
-      path: '/',
-      domain: '127.0.0.1',
-      secure: false,
-      script: false,
-    });
-    expect(afterCookie?.value).toBeTruthy();
-    expect(afterCookie?.value).not.toBe(before);
+    const after = sessionId(steps.agent);
+    expect(after).toBeTruthy();
+    expect(after).not.toBe(before);
     if (before) {
       const planted = await request(coppice.app).get('/api/me').set('cookie', `coppice.sid=${before}`);
       expect(planted.status).toBe(401);
@@ -83,17 +69,12 @@ describe('single sign-on through the local identity provider', () => {
 
   it('ends the session on sign-out, also for a copy of the old cookie', async () => {
     const agent = await coppice.signIn(ACCOUNTS.privacy);
-    const cookie = agent.jar.getCookie('coppice.sid', {
-      path: '/',
-      domain: '127.0.0.1',
-      secure: false,
-      script: false,
-    })!;
+    const cookie = sessionCookie(agent);
     const out = await agent.post('/auth/logout').set('accept', 'application/json');
     expect(out.status).toBe(200);
     expect(out.body.redirectTo).toContain('/oidc/session/end');
     expect((await agent.get('/api/me')).status).toBe(401);
-    const replay = await request(coppice.app).get('/api/me').set('cookie', `coppice.sid=${cookie.value}`);
+    const replay = await request(coppice.app).get('/api/me').set('cookie', cookie);
     expect(replay.status).toBe(401);
   });
 
@@ -101,16 +82,11 @@ describe('single sign-on through the local identity provider', () => {
     const people = [ACCOUNTS.analyst, ACCOUNTS.managerNorth, ACCOUNTS.managerSouth];
     const agents = await Promise.all(people.map((email) => coppice.signIn(email)));
     const leaving = await coppice.signIn(ACCOUNTS.privacy);
-    const leavingCookie = leaving.jar.getCookie('coppice.sid', {
-      path: '/',
-      domain: '127.0.0.1',
-      secure: false,
-      script: false,
-    })!;
+    const leavingCookie = sessionCookie(leaving);
     expect((await leaving.post('/auth/logout').set('accept', 'application/json')).status).toBe(200);
     const calls = Array.from({ length: 15 }, () => [
       ...agents.map((agent) => agent.get('/api/me')),
-      request(coppice.app).get('/api/me').set('cookie', `coppice.sid=${leavingCookie.value}`),
+      request(coppice.app).get('/api/me').set('cookie', leavingCookie),
       request(coppice.app).get('/api/me'),
     ]).flat();
     const answers = await Promise.all(calls);

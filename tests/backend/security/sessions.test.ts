@@ -3,7 +3,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../../backend/src/app';
 import { ConfigError, loadConfig } from '../../../backend/src/lib/config';
-import { startSignIn } from '../../helpers/sign-in';
+import { sessionCookie, startSignIn } from '../../helpers/sign-in';
 import { ACCOUNTS, startTestCoppice, type TestCoppice } from '../../helpers/test-coppice';
 
 let coppice: TestCoppice;
@@ -16,17 +16,6 @@ afterAll(async () => {
   await sessionPool?.end();
   await coppice?.stop();
 });
-
-function sessionCookie(agent: request.Agent): string {
-  const cookie = agent.jar.getCookie('coppice.sid', {
-    path: '/',
-    domain: '127.0.0.1',
-    secure: false,
-    script: false,
-  });
-  if (!cookie) throw new Error('no session cookie');
-  return `coppice.sid=${cookie.value}`;
-}
 
 /**
  * The same app as in production behind a TLS-terminating proxy (production settings and
