@@ -13,7 +13,10 @@ import type { Express } from 'express';
  */
 export function createHttpServer(app: Express): http.Server {
   // Node's IncomingMessage and ServerResponse are plain constructor functions: called on an object
-  // whose prototype chain already leads to theirs, they set it up as `new` would.
+  // whose prototype chain already leads to theirs, they set it up as `new` would. Should a later
+  // Node make them classes (which cannot be called so), the server is the plain one.
+  const isClass = (f: unknown) => /^class\b/.test(Function.prototype.toString.call(f));
+  if (isClass(http.IncomingMessage) || isClass(http.ServerResponse)) return http.createServer(app);
   function ExpressRequest(this: http.IncomingMessage, ...args: unknown[]) {
     Reflect.apply(http.IncomingMessage, this, args);
   }
