@@ -39,6 +39,13 @@ describe('the privacy policy form', () => {
     expect(screen.getByText(/deleted this many days after upload/)).toBeTruthy();
   });
 
+  /** The policy form as a privacy officer sees it, with the intake's suggestions; its submit spy. */
+  function renderPolicyForm(suggestions?: { name: string; note: string }[]) {
+    const onSubmit = vi.fn(async () => {});
+    render(<PolicyForm policy={policy} canEdit onSubmit={onSubmit} suggestions={suggestions} />);
+    return onSubmit;
+  }
+
   it('refuses a k below 2 and a missing reason beside the fields, without saving', async () => {
     const onSubmit = vi.fn(async () => {});
     render(<PolicyForm policy={policy} canEdit onSubmit={onSubmit} />);
@@ -50,15 +57,7 @@ describe('the privacy policy form', () => {
   });
 
   it('blocks a further field, unblocks one and saves with the reason', async () => {
-    const onSubmit = vi.fn(async () => {});
-    render(
-      <PolicyForm
-        policy={policy}
-        canEdit
-        onSubmit={onSubmit}
-        suggestions={[{ name: 'Gender', note: 'UK Equality Act 2010 s.4: sex' }]}
-      />,
-    );
+    const onSubmit = renderPolicyForm([{ name: 'Gender', note: 'UK Equality Act 2010 s.4: sex' }]);
     expect(screen.getByText('UK Equality Act 2010 s.4: sex')).toBeTruthy();
     await press('Block Gender');
     fireEvent.change(screen.getByLabelText('Column name to block'), { target: { value: 'Ethnicity' } });
@@ -85,19 +84,11 @@ describe('the privacy policy form', () => {
   });
 
   it('blocks every suggested protected characteristic with one press, then saves them', async () => {
-    const onSubmit = vi.fn(async () => {});
-    render(
-      <PolicyForm
-        policy={policy}
-        canEdit
-        onSubmit={onSubmit}
-        suggestions={[
-          { name: 'Date of Birth', note: 'age' },
-          { name: 'Gender', note: 'sex' },
-          { name: 'Religion', note: 'religion or belief' },
-        ]}
-      />,
-    );
+    const onSubmit = renderPolicyForm([
+      { name: 'Date of Birth', note: 'age' },
+      { name: 'Gender', note: 'sex' },
+      { name: 'Religion', note: 'religion or belief' },
+    ]);
     // Date of Birth is blocked already, so two suggestions remain open.
     await press('Block all 2 suggested');
     expect(screen.queryByRole('button', { name: /Block all/ })).toBeNull();
