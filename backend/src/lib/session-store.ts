@@ -24,7 +24,17 @@ export class BatchedPgStore extends PgStore {
       );
       const found = new Map<string, session.SessionData>();
       for (const row of result.rows) {
-        found.set(row.sid, typeof row.sess === 'string' ? JSON.parse(row.sess) : row.sess);
+        if (typeof row.sess !== 'string') {
+          found.set(row.sid, row.sess);
+          continue;
+        }
+        // One unreadable session must not fail the others of its batch: it is ended, as
+        // connect-pg-simple does, and its request is treated as signed out.
+        try {
+          found.set(row.sid, JSON.parse(row.sess));
+        } catch {
+          this.destroy(row.sid);
+        }
       }
       return sids.map((sid) => found.get(sid) ?? null);
     });

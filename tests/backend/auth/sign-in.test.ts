@@ -1,3 +1,4 @@
+import { createHmac } from 'node:crypto';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { sessionCookie, sessionId, startSignIn } from '../../helpers/sign-in';
@@ -98,6 +99,30 @@ describe('single sign-on through the local identity provider', () => {
       expect(answers[i + people.length]!.status).toBe(401);
       expect(answers[i + people.length + 1]!.status).toBe(401);
     }
+  });
+
+  it('ends an unreadable stored session on its own, without failing the requests read with it', async () => {
+    const sid = `broken-${Date.now()}`;
+    // A JSON string where a session object belongs.
+    await coppice.sql(
+      `INSERT INTO session (sid, sess, expire) VALUES ($1, '"not a session"'::json, now() + interval '1 hour')`,
+      [sid],
+    );
+    const signature = createHmac('sha256', coppice.config.sessionSecret).update(sid).digest('base64');
+    const broken = `coppice.sid=${encodeURIComponent(`s:${sid}.${signature.replace(/=+$/, '')}`)}`;
+    const agent = await coppice.signIn(ACCOUNTS.analyst);
+    const answers = await Promise.all(
+      Array.from({ length: 10 }, (_, i) =>
+        i % 2 ? agent.get('/api/me') : request(coppice.app).get('/api/me').set('cookie', broken),
+      ),
+    );
+    answers.forEach((res, i) => expect(res.status).toBe(i % 2 ? 200 : 401));
+    for (let i = 0; i < 50; i++) {
+      const left = await coppice.sql('SELECT 1 FROM session WHERE sid = $1', [sid]);
+      if (left.length === 0) break;
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    expect(await coppice.sql('SELECT 1 FROM session WHERE sid = $1', [sid])).toEqual([]);
   });
 
   it('records sign-ins in the audit trail without personal data beyond the actor', async () => {
