@@ -26,7 +26,8 @@ export type WorkbookRead = {
 // Cell kinds as xlsx-worker.mjs writes them.
 const KIND = { empty: 0, number: 1, dateSerial: 2, text: 3, true: 4, false: 5 } as const;
 
-// A plain JavaScript module so that the same file runs under tsx (the server), vitest and node.
+// A plain JavaScript module, so that the same file runs from the sources (tsx, vitest) and beside the
+// built server (scripts/build-server.mjs copies it into dist/server).
 const WORKER_URL = new URL('./xlsx-worker.mjs', import.meta.url);
 
 /** The worker's typed-array columns as cells, with a mask of the number cells that carry a date format. */
